@@ -1,0 +1,35 @@
+"""Unscreened hydrogenic 1s² product ``exp(-Z r1 - Z r2)``.
+
+Its energy is the first-order perturbation result ``E = -Z² + 5Z/8`` (Eh): the zeroth-order
+``-Z²`` plus ``<1/r12> = 5Z/8`` (e.g. Bethe & Salpeter, Quantum Mechanics of One- and
+Two-Electron Atoms, 1957, §32).  No nonlinear parameter.
+"""
+
+from __future__ import annotations
+
+from ..matrices import CorrelatedBasis
+from ..system import Ion, State
+from .base import Parameter, TrialFamily
+
+
+class HydrogenicFamily(TrialFamily):
+    name = "hydrogenic"
+    summary = "unscreened 1s² product exp(-Z r1 - Z r2); first-order energy -Z² + 5Z/8"
+    optimize_by_default = False
+
+    def check_state(self, state: State) -> None:
+        super().check_state(state)
+        if state.label != "1^1S":
+            from ..errors import UnsupportedError
+
+            raise UnsupportedError(f"family 'hydrogenic' describes only the 1s² ground state 1^1S, "
+                                   f"not {state.label}")
+
+    def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
+        return []
+
+    def build(self, ion: Ion, state: State, size, values, options) -> CorrelatedBasis:
+        return CorrelatedBasis([[0, 0, 0]], [[ion.Z, ion.Z, 0.0]], sign=1, labels=("1s²(Z)",))
+
+
+FAMILY = HydrogenicFamily()

@@ -1,0 +1,34 @@
+"""1s² product with a variational effective charge ``exp(-ζ r1 - ζ r2)``.
+
+The energy ``E(ζ) = ζ² - 2Zζ + 5ζ/8`` is minimal at ``ζ = Z - 5/16`` with ``E = -(Z - 5/16)²``
+(Kellner, Z. Phys. 44, 91 (1927); any quantum-mechanics text).  ζ is optimized numerically like
+every other nonlinear parameter, so this family also tests the optimizer against a closed form.
+"""
+
+from __future__ import annotations
+
+from ..errors import UnsupportedError
+from ..matrices import CorrelatedBasis
+from ..system import Ion, State
+from .base import Parameter, TrialFamily
+
+
+class ScreenedFamily(TrialFamily):
+    name = "screened"
+    summary = "1s² product with variational effective charge (optimum Z - 5/16)"
+
+    def check_state(self, state: State) -> None:
+        super().check_state(state)
+        if state.label != "1^1S":
+            raise UnsupportedError(f"family 'screened' describes only the 1s² ground state 1^1S, "
+                                   f"not {state.label}")
+
+    def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
+        return [Parameter("zeta", max(ion.Z - 0.3, 0.1), 1e-3, 10 * ion.Z + 10)]
+
+    def build(self, ion: Ion, state: State, size, values, options) -> CorrelatedBasis:
+        zeta = values["zeta"]
+        return CorrelatedBasis([[0, 0, 0]], [[zeta, zeta, 0.0]], sign=1, labels=("1s²(ζ)",))
+
+
+FAMILY = ScreenedFamily()

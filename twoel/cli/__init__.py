@@ -1,0 +1,69 @@
+"""Command-line front end: ``twoel <command> ...``.
+
+Each command lives in its own module with ``NAME``, ``HELP``, ``add_parser(subparsers)`` and a
+``run(args) -> int`` set as the parser default.  Errors of the library (:class:`TwoelError`)
+become one line on stderr and exit status 2; nothing prints a traceback unless ``--debug``.
+"""
+
+from __future__ import annotations
+
+import importlib
+import sys
+import warnings
+
+from .._version import __version__
+from ..errors import TwoelError
+from .common import TwoelArgumentParser
+
+#: modules of twoel.cli that define a command, in help order (absent ones are skipped)
+COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
+                   "check", "report")
+
+
+def build_parser() -> TwoelArgumentParser:
+    parser = TwoelArgumentParser(
+        prog="twoel",
+        description="Variational energies of two-electron atoms and helium-like ions "
+                    "(Hartree atomic units inside; CODATA conversions at the edges).")
+    parser.add_argument("--version", action="version", version=f"twoel {__version__}")
+    parser.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
+    subparsers = parser.add_subparsers(title="commands", metavar="COMMAND", parser_class=TwoelArgumentParser)
+    for name in COMMAND_MODULES:
+        try:
+            module = importlib.import_module(f"{__name__}.{name}")
+        except ModuleNotFoundError as exc:
+            if exc.name == f"{__name__}.{name}":
+                continue  # command not built yet
+            raise
+        module.add_parser(subparsers)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if not hasattr(args, "run"):
+        parser.print_help(sys.stderr)
+        return 2
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")  # warnings are carried in the results and printed there
+            return int(args.run(args) or 0)
+    except TwoelError as exc:
+        sys.stderr.write(f"twoel: error: {exc}\n")
+        return 2
+    except KeyboardInterrupt:
+        sys.stderr.write("twoel: interrupted\n")
+        return 130
+    except BrokenPipeError:
+        return 0
+    except Exception as exc:  # pragma: no cover - last line of defence
+        if args.debug:
+            raise
+        sys.stderr.write(f"twoel: internal error: {type(exc).__name__}: {exc} "
+                         "(rerun with --debug for a traceback and please report it)\n")
+        return 3
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

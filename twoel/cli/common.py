@@ -1,0 +1,147 @@
+"""Shared pieces of the command line: argument types, option groups, output, errors."""
+
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import sys
+
+from ..errors import InputError
+from ..system import parse_charge
+from ..units import UNIT_LABELS, hartree_to
+
+
+class TwoelArgumentParser(argparse.ArgumentParser):
+    """An argument parser whose errors are one line on stderr and exit status 2."""
+
+    def error(self, message: str):  # noqa: D401 - argparse API
+        self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+
+
+def positive_int(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"must be an integer, got {text!r}")
+    if value < 0:
+        raise argparse.ArgumentTypeError(f"must be >= 0, got {value}")
+    return value
+
+
+def charge(text: str) -> float:
+    try:
+        return parse_charge(text)
+    except InputError as exc:
+        raise argparse.ArgumentTypeError(str(exc))
+
+
+def parameter_assignment(text: str) -> tuple[str, float]:
+    """Parse ``NAME=VALUE`` (a float) without evaluating anything."""
+    if "=" not in text:
+        raise argparse.ArgumentTypeError(f"expected NAME=VALUE, got {text!r}")
+    name, value = text.split("=", 1)
+    try:
+        number = float(value)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"value of {name!r} must be a number, got {value!r}")
+    if not math.isfinite(number):
+        raise argparse.ArgumentTypeError(f"value of {name!r} must be finite, got {value!r}")
+    return name.strip(), number
+
+
+def term_list(text: str) -> list[tuple[int, int, int]]:
+    """Parse ``"0,0,0;0,0,1;0,2,0"`` into integer triples (no evaluation)."""
+    terms = []
+    for chunk in text.split(";"):
+        chunk = chunk.strip()
+        if not chunk:
+            continue
+        parts = [p.strip() for p in chunk.split(",")]
+        if len(parts) != 3 or not all(p.isdigit() for p in parts):
+            raise argparse.ArgumentTypeError(f"each term must be three non-negative integers "
+                                             f"'i,j,k', got {chunk!r}")
+        terms.append(tuple(int(p) for p in parts))
+    if not terms:
+        raise argparse.ArgumentTypeError("the term list is empty")
+    return terms
+
+
+def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | None = None) -> None:
+    """Options that choose the trial family and its basis (shared by several commands)."""
+    from ..basis import family_names
+
+    group = parser.add_argument_group("basis")
+    group.add_argument("--state", default="1^1S",
+                       help="term symbol: 1^1S (default), 2^3S, '2 3S', 2³S ...")
+    group.add_argument("--family", default="hylleraas",
+                       help=f"trial-function family: {', '.join(family_names())} (default hylleraas)")
+    group.add_argument("--size", type=positive_int, default=default_size,
+                       help="the family's size parameter (ω for hylleraas); ignored by families without one")
+    group.add_argument("--param", action="append", type=parameter_assignment, default=[],
+                       metavar="NAME=VALUE", help="fix a nonlinear parameter (bohr⁻¹); repeatable")
+    opt = group.add_mutually_exclusive_group()
+    opt.add_argument("--optimize", dest="optimize", action="store_true", default=None,
+                     help="optimize the nonlinear parameters (the default when none is fixed)")
+    opt.add_argument("--no-optimize", dest="optimize", action="store_false",
+                     help="use the starting (or given) parameters as they are")
+    group.add_argument("--exponents", type=int, choices=(1, 2), default=None,
+                       help="hylleraas: one exponent (α = β) or two")
+    group.add_argument("--terms", type=term_list, default=None,
+                       help="hylleraas: explicit powers 'i,j,k;i,j,k;...' instead of all up to ω")
+    group.add_argument("--coordinates", choices=("r", "stu"), default=None,
+                       help="hylleraas: powers of (r1, r2, r12) [default] or of (s, t, u)")
+
+
+def basis_keywords(args: argparse.Namespace) -> dict:
+    """Turn the parsed basis options into keyword arguments of :func:`twoel.solve`."""
+    options = {}
+    for name in ("exponents", "terms", "coordinates"):
+        value = getattr(args, name, None)
+        if value is not None:
+            options[name] = value
+    return {
+        "state": args.state,
+        "family": args.family,
+        "size": args.size,
+        "parameters": dict(args.param) if args.param else None,
+        "optimize": args.optimize,
+        "options": options or None,
+    }
+
+
+def _json_default(value):
+    if hasattr(value, "item"):
+        return value.item()
+    if hasattr(value, "tolist"):
+        return value.tolist()
+    if hasattr(value, "to_dict"):
+        return value.to_dict()
+    raise TypeError(f"not JSON serializable: {type(value).__name__}")
+
+
+def _clean(value):
+    """Replace non-finite floats by strings so that the JSON is standard."""
+    if isinstance(value, float) and not math.isfinite(value):
+        return "inf" if value > 0 else ("-inf" if value < 0 else "nan")
+    if isinstance(value, dict):
+        return {k: _clean(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_clean(v) for v in value]
+    return value
+
+
+def dumps_json(obj) -> str:
+    """Standard JSON (no NaN/Infinity literals), UTF-8 text."""
+    return json.dumps(_clean(obj), indent=2, ensure_ascii=False, default=_json_default)
+
+
+def print_json(obj) -> None:
+    sys.stdout.write(dumps_json(obj) + "\n")
+
+
+def energy_line(label: str, value_hartree: float | None, units=("hartree", "ev", "cm-1", "kj/mol", "mhz")) -> str:
+    if value_hartree is None:
+        return f"{label}: —"
+    parts = [f"{hartree_to(value_hartree, u):.12g} {UNIT_LABELS[u]}" for u in units]
+    return f"{label}: " + " = ".join(parts)

@@ -1,0 +1,64 @@
+"""``twoel energy``: the variational energy of one state of one ion."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from .common import add_basis_arguments, basis_keywords, charge, energy_line, print_json
+
+NAME = "energy"
+HELP = "variational energy and ionization energy of one state of one ion"
+
+
+def add_parser(subparsers) -> None:
+    p = subparsers.add_parser(NAME, help=HELP, description=HELP)
+    p.add_argument("--Z", type=charge, required=True,
+                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_basis_arguments(p)
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--quiet", action="store_true", help="no progress on stderr")
+    p.set_defaults(run=run)
+
+
+def summary_text(result) -> str:
+    lines = [f"{result.ion} {result.state}  (Z = {result.Z:g}, family {result.family}"
+             f"{'' if result.size is None else f', size {result.size}'}, {result.n_terms} functions, "
+             f"{result.precision})"]
+    if result.bound:
+        lines.append(f"energy: {result.energy_hartree_text or repr(result.energy_hartree)} Eh"
+                     + (f" ± {result.error_bar_hartree:.1e}" if result.error_bar_hartree else ""))
+        lines.append(energy_line("ionization energy", result.ionization_energy_hartree))
+    else:
+        lines.append(f"not bound: {result.message}")
+    lines.append(f"threshold (one-electron ion): {result.threshold_hartree!r} Eh")
+    if result.reference is not None:
+        ref = result.reference
+        lines.append(f"reference: {ref.value_text} Eh  [{ref.source}; {ref.note}]")
+        lines.append(f"difference: {result.difference_hartree:+.3e} Eh  "
+                     f"({result.agreeing_digits} agreeing digits)")
+    else:
+        lines.append("reference: none tabulated")
+    if result.parameters:
+        lines.append("parameters: " + ", ".join(f"{k} = {v:.10g}" for k, v in result.parameters.items()))
+    lines.append(f"virial ratio -V/T: {result.virial_ratio:.12f}   overlap condition number: "
+                 f"{result.condition_number:.2e}   dropped directions: {result.n_dropped}")
+    for text in result.notes:
+        lines.append(f"note: {text}")
+    for text in result.warnings:
+        lines.append(f"warning: {text}")
+    lines.append(f"time: {result.elapsed_seconds:.2f} s   twoel {result.provenance.get('version')}")
+    return "\n".join(lines) + "\n"
+
+
+def run(args: argparse.Namespace) -> int:
+    from .. import solve
+    from .progress import optimizer_progress
+
+    with optimizer_progress(enabled=not args.quiet and not args.json) as progress:
+        result = solve(args.Z, progress=progress, **basis_keywords(args))
+    if args.json:
+        print_json(result.to_dict())
+    else:
+        sys.stdout.write(summary_text(result))
+    return 0

@@ -1,0 +1,167 @@
+"""Frozen result objects with their provenance.
+
+:class:`EnergyResult` is what :func:`twoel.solve` returns: the energy (Eh), whether the state is
+bound, the ionization energy, diagnostics of the basis and the optimizer, the published
+reference with the difference, and everything needed to reproduce the number
+(:attr:`EnergyResult.provenance`).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+
+from .reference import ReferenceValue
+from .units import ENERGY_UNITS, hartree_to
+
+
+def agreeing_digits(value: float, reference: float) -> int:
+    """Number of leading significant digits in which ``value`` agrees with ``reference``.
+
+    Defined as ``floor(-log10(|value - reference| / |reference|))`` (0 if worse than 100 %),
+    capped at 16 for float64 values that agree to the last bit.
+    """
+    if reference == 0:
+        return 0
+    diff = abs(value - reference)
+    if diff == 0:
+        return 16
+    return max(0, int(math.floor(-math.log10(diff / abs(reference)))))
+
+
+@dataclass(frozen=True)
+class Wavefunction:
+    """A basis and the linear coefficients of one root (normalized, ``c^T S c = 1``)."""
+
+    basis: Any
+    coefficients: np.ndarray
+
+
+@dataclass(frozen=True)
+class EnergyResult:
+    """Energy of one state of a two-electron ion, with diagnostics and provenance.
+
+    All energies are in hartree (Eh).  ``energy_hartree`` is the variational (upper-bound)
+    energy of the requested root; if it is not below ``threshold_hartree`` (= -Z²/2) the state
+    is *not bound* in this basis and ``ionization_energy_hartree`` is ``None``.
+    """
+
+    Z: float
+    ion: str
+    state: str
+    family: str
+    size: int | None
+    n_terms: int
+    energy_hartree: float
+    bound: bool
+    threshold_hartree: float
+    parameters: dict
+    roots_hartree: tuple
+    kinetic_hartree: float
+    potential_hartree: float
+    virial_ratio: float
+    condition_number: float
+    n_dropped: int
+    precision: str
+    status: str
+    message: str
+    reference: ReferenceValue | None = None
+    optimizer: dict | None = None
+    warnings: tuple = ()
+    notes: tuple = ()
+    energy_hartree_text: str | None = None
+    error_bar_hartree: float | None = None
+    elapsed_seconds: float = 0.0
+    provenance: dict = field(default_factory=dict)
+    wavefunction: Wavefunction | None = field(default=None, compare=False, repr=False)
+
+    @property
+    def ionization_energy_hartree(self) -> float | None:
+        """``I = E(one-electron ion) - E = -Z²/2 - E`` (Eh), ``None`` if not bound."""
+        if not self.bound:
+            return None
+        return self.threshold_hartree - self.energy_hartree
+
+    def ionization_energy(self, unit: str = "hartree") -> float | None:
+        """Ionization energy in ``unit`` (``"eV"``, ``"cm-1"``, ``"kJ/mol"``, ``"MHz"`` ...)."""
+        value = self.ionization_energy_hartree
+        return None if value is None else hartree_to(value, unit)
+
+    @property
+    def reference_energy_hartree(self) -> float | None:
+        return None if self.reference is None else self.reference.value
+
+    @property
+    def difference_hartree(self) -> float | None:
+        """``E - E_reference`` (Eh); positive for a variational upper bound."""
+        return None if self.reference is None else self.energy_hartree - self.reference.value
+
+    @property
+    def agreeing_digits(self) -> int | None:
+        if self.reference is None:
+            return None
+        return agreeing_digits(self.energy_hartree, self.reference.value)
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary (the ``twoel energy --json`` record)."""
+        ie = self.ionization_energy_hartree
+        return {
+            "Z": self.Z,
+            "ion": self.ion,
+            "state": self.state,
+            "family": self.family,
+            "size": self.size,
+            "n_terms": self.n_terms,
+            "energy_hartree": self.energy_hartree,
+            "energy_hartree_text": self.energy_hartree_text,
+            "error_bar_hartree": self.error_bar_hartree,
+            "bound": self.bound,
+            "status": self.status,
+            "message": self.message,
+            "threshold_hartree": self.threshold_hartree,
+            "ionization_energy_hartree": ie,
+            "ionization_energy_ev": None if ie is None else hartree_to(ie, "ev"),
+            "ionization_energy_cm1": None if ie is None else hartree_to(ie, "cm-1"),
+            "ionization_energy_kj_mol": None if ie is None else hartree_to(ie, "kj/mol"),
+            "ionization_energy_mhz": None if ie is None else hartree_to(ie, "mhz"),
+            "reference_energy_hartree": self.reference_energy_hartree,
+            "reference_energy_text": None if self.reference is None else self.reference.value_text,
+            "reference_source": None if self.reference is None else self.reference.source,
+            "reference_note": None if self.reference is None else self.reference.note,
+            "difference_hartree": self.difference_hartree,
+            "agreeing_digits": self.agreeing_digits,
+            "parameters": dict(self.parameters),
+            "roots_hartree": list(self.roots_hartree),
+            "kinetic_hartree": self.kinetic_hartree,
+            "potential_hartree": self.potential_hartree,
+            "virial_ratio": self.virial_ratio,
+            "condition_number": self.condition_number,
+            "n_dropped": self.n_dropped,
+            "precision": self.precision,
+            "optimizer": self.optimizer,
+            "warnings": list(self.warnings),
+            "notes": list(self.notes),
+            "elapsed_seconds": self.elapsed_seconds,
+            "provenance": self.provenance,
+        }
+
+    def to_frame(self):
+        """One-row :class:`pandas.DataFrame` of the scalar fields."""
+        import pandas as pd
+
+        record = {k: v for k, v in self.to_dict().items()
+                  if not isinstance(v, (dict, list))}
+        return pd.DataFrame([record])
+
+    def ionization_energies(self) -> dict[str, float] | None:
+        """The ionization energy in every known unit, or ``None`` if not bound."""
+        ie = self.ionization_energy_hartree
+        return None if ie is None else {u: hartree_to(ie, u) for u in ENERGY_UNITS}
+
+    def __repr__(self) -> str:
+        status = f"E={self.energy_hartree:.12f} Eh" if self.bound else "not bound"
+        return (f"EnergyResult({self.ion} {self.state}, {self.family}"
+                f"{'' if self.size is None else f' size={self.size}'}, N={self.n_terms}, {status})")
