@@ -50,11 +50,11 @@ class ReferenceValue:
 
 
 def data_root():
-    """The folder of shipped data: package ``twoel.data`` once installed, ``data/`` in a checkout."""
-    try:
-        return resources.files("twoel.data")
-    except ModuleNotFoundError:
-        return Path(__file__).resolve().parent.parent / "data"
+    """The folder of shipped data: ``data/`` beside the package in a checkout, else ``twoel.data``."""
+    checkout = Path(__file__).resolve().parent.parent / "data"
+    if (checkout / "reference_energies.csv").is_file():
+        return checkout
+    return resources.files("twoel.data")
 
 
 def data_files() -> list[str]:
