@@ -147,9 +147,11 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
     root : int
         Index of the wanted root.
     steps : int
-        Inverse-iteration steps (one is enough from a float64 start: the shift is already
-        within ~1e-9 of the eigenvalue, so one step gains ~9 digits in the vector and the
-        Rayleigh quotient doubles them).
+        Inverse-iteration steps (default one).  With the shift ``σ = E₀`` (float64) and a start
+        of energy error ``Δ ≈ E₀ - E₁``, one step leaves an energy error of order ``Δ³/g²``
+        (``g`` the gap to the next root); ``Δ²/g`` is reported as a conservative iteration error.
+        Measured second-step changes: 2e-27 Eh (He, N = 250), 1e-24 Eh (H⁻, N = 250), against
+        reported bounds ~2e-17 Eh.
     """
     from flint import ctx
 
@@ -167,12 +169,19 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
     finally:
         ctx.prec = old
     last = energies[-1]
-    # the double-double entries are rounded at ~2^-104 relative: bound their effect on the quotient
+    # each double-double entry carries the rounding of ~50 operations (~2^-100 relative, 2^-96
+    # with margin): bound its effect on the quotient by |x|ᵀ(|H| + |E||S|)|x| / xᵀSx
     norm = float(vector @ (S.hi @ vector))
-    floor = 2.0 ** -103 * float(np.abs(vector) @ (np.abs(H.hi) + abs(float(last.mid())) * np.abs(S.hi))
+    floor = 2.0 ** -96 * float(np.abs(vector) @ (np.abs(H.hi) + abs(float(last.mid())) * np.abs(S.hi))
                                 @ np.abs(vector)) / norm
     history = _history(energies)
-    change = abs(history[-2]) if len(history) >= 2 else 0.0
+    if len(history) >= 2:
+        change = abs(history[-2])
+    else:
+        delta = abs(float(eig.values[root]) - float(last.mid()))
+        upper = eig.values[root + 1] if root + 1 < len(eig.values) else eig.values[root] + 1.0
+        gap = max(float(upper) - float(last.mid()), 1e-3)
+        change = delta * delta / gap
     error = max(floor, float(last.rad()), change, 1e-30 * abs(float(last.mid())))
     t2 = time.perf_counter()
     text = _clean_arb_text(last.mid().str(32, radius=False))
@@ -251,20 +260,17 @@ def _clean_arb_text(text: str) -> str:
 
 
 def truncate_text(text: str, error: float) -> str:
-    """``text`` (a decimal energy) cut to the digits that ``error`` (Eh) leaves meaningful.
+    """``text`` (a decimal energy) rounded to the decimal place of ``error`` (Eh).
 
-    The last printed digit is the first decimal place at or above the error bar, so a value
-    ``-2.90372437703411959`` with error ``3e-16`` becomes ``-2.9037243770341196`` (rounded).
+    The last printed digit is the first decimal place at or above the error bar, so
+    ``-2.90372437703411959`` with error ``3e-16`` becomes ``-2.9037243770341196``.
     """
-    import mpmath
+    from decimal import ROUND_HALF_EVEN, Decimal, localcontext
 
     if not math.isfinite(error) or error <= 0:
         return text
-    with mpmath.workdps(80):
-        value = mpmath.mpf(text)
-        place = math.floor(math.log10(error))
-        decimals = max(0, -place)
-        quantum = mpmath.mpf(10) ** (-decimals)
-        rounded = mpmath.nint(value / quantum) * quantum
-        return mpmath.nstr(rounded, max(1, decimals + len(str(int(abs(value)))) ), strip_zeros=False) \
-            if decimals else str(int(rounded))
+    place = math.floor(math.log10(error))
+    with localcontext() as context:
+        context.prec = 80
+        value = Decimal(text)
+        return str(value.quantize(Decimal(1).scaleb(place), rounding=ROUND_HALF_EVEN))

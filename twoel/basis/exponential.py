@@ -113,7 +113,7 @@ class ExponentialFamily(TrialFamily):
     name = "exponential"
     summary = "Σ (1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12), quasi-random exponents in boxes (Korobov 2000)"
     size_meaning = "N, the number of exponential terms"
-    default_size = 400
+    default_size = 250
     min_size = 4
     max_size = 4000
     optimize_by_default = False
