@@ -11,6 +11,7 @@ Everything is in Hartree atomic units (Eh, bohr); laboratory units appear only a
 
 from ._version import __version__
 from .basis import family_names, get_family
+from .convergence import ConvergenceStudy, run_study
 from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
 from .pipeline import solve
@@ -21,4 +22,5 @@ __all__ = [
     "__version__", "solve", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
+    "ConvergenceStudy", "run_study",
 ]

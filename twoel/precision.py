@@ -273,4 +273,6 @@ def truncate_text(text: str, error: float) -> str:
     with localcontext() as context:
         context.prec = 80
         value = Decimal(text)
+        if place <= value.as_tuple().exponent:
+            return text  # the error is below the last computed digit: keep them all
         return str(value.quantize(Decimal(1).scaleb(place), rounding=ROUND_HALF_EVEN))
