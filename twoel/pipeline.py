@@ -241,14 +241,17 @@ def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision
     """Truncation error from the nested smaller bases ``N/2`` and ``N/√2`` (see twoel.convergence)."""
     from .convergence import error_bar_sizes, estimate_tail
 
-    texts = []
+    texts, numerical = [], [refined.numerical_error_hartree]
     sizes = error_bar_sizes(size)
     for n in sizes:
+        # the smaller bases only feed differences: the mixed refinement (~1e-17 Eh) suffices
         b, _m, e = _evaluate(fam, ion, state, n, values, options, drop_threshold)
-        texts.append(_refine(b, ion, state, e, precision, digits).text)
+        aux = _refine(b, ion, state, e, "float64", None)
+        texts.append(aux.text)
+        numerical.append(aux.numerical_error_hartree)
     texts.append(refined.text)
     energies = [float(t) for t in texts]
-    estimate = estimate_tail(energies, refined.numerical_error_hartree, texts)
+    estimate = estimate_tail(energies, max(numerical), texts)
     return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
             "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
             "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,

@@ -57,7 +57,7 @@ def _dd_block(bra: np.ndarray, ket: np.ndarray):
     return {"overlap": ov, "kinetic": kinetic, "nuclear": nu, "repulsion": re}
 
 
-def dd_matrices(exponents: np.ndarray, sign: int, block: int = 64) -> dict[str, DD]:
+def dd_matrices(exponents: np.ndarray, sign: int, block: int | None = None) -> dict[str, DD]:
     """Double-double primitive matrices (full, symmetric) of a zero-power basis.
 
     Parameters
@@ -73,6 +73,8 @@ def dd_matrices(exponents: np.ndarray, sign: int, block: int = 64) -> dict[str, 
     """
     exponents = np.asarray(exponents, dtype=float)
     N = exponents.shape[0]
+    if block is None:  # ~16k pairs per block: temporaries stay in cache (measured optimum)
+        block = max(16, 16384 // max(N, 1))
     swapped = exponents[:, [1, 0, 2]]
     hi = {name: np.zeros((N, N)) for name in NAMES}
     lo = {name: np.zeros((N, N)) for name in NAMES}
