@@ -233,8 +233,10 @@ def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, d
     n = basis.size
     condition_digits = (np.log10(eig.condition_number) if eig.n_dropped == 0
                         and np.isfinite(eig.condition_number) else 16.0 + 8.0 * np.log10(max(n, 100) / 100.0))
+    upper = eig.values[state.root + 1] if state.root + 1 < len(eig.values) else np.inf
     return extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
-                           digits, float(condition_digits))
+                           digits, float(condition_digits),
+                           gap=float(min(upper - mixed.energy_hartree, 1.0)))
 
 
 def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision, digits, refined) -> dict:
