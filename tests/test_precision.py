@@ -124,3 +124,13 @@ def test_helium_extended_fourteen_digits():
     with mpmath.workdps(40):
         err = float(mpmath.mpf(r.provenance["energy_full_text"]) - mpmath.mpf(HE_GROUND))
     assert 0 < err < 2.9e-14  # >= 14 significant digits
+
+
+def test_clear_errors_for_unservable_requests():
+    from twoel.cli import main
+    from twoel.errors import ResourceError
+
+    with pytest.raises(ResourceError, match="extended precision is limited"):
+        twoel.solve(2, family="exponential", size=2600, precision="extended")
+    assert main(["energy", "--Z", "2", "--family", "exponential", "--state", "2^1P"]) == 2
+    assert main(["energy", "--Z", "2", "--family", "exponential", "--digits", "20"]) == 2

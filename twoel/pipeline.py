@@ -20,7 +20,7 @@ from ._version import __version__
 from .basis import get_family
 from .basis.base import TrialFamily
 from .eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
-from .errors import AccuracyWarning, InputError, UnsupportedError
+from .errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from .matrices import CorrelatedBasis
 from .optimize import minimize_energy
 from .precision import check_precision, extended_refine, mixed_refine, truncate_text
@@ -30,6 +30,8 @@ from .system import Ion, State
 
 #: condition number of the scaled overlap above which a near-dependence warning is attached
 ILL_CONDITIONED = 1e15
+#: largest exponential basis solved in extended precision (arb LU is O(N³) at ~200 bits)
+MAX_EXTENDED_SIZE = 2500
 
 
 def _evaluate(family: TrialFamily, ion: Ion, state: State, size, values: dict, options: dict,
@@ -103,6 +105,9 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     fam = get_family(family)
     digit_target = check_precision(precision, digits)
     size = fam.resolve_size(size)
+    if precision == "extended" and size is not None and size > MAX_EXTENDED_SIZE:
+        raise ResourceError(f"extended precision is limited to {MAX_EXTENDED_SIZE} terms "
+                            f"(got {size}); use a smaller size or the default precision")
     options = fam.check_options(options)
     fam.check_state(state)
     params = fam.parameters(ion, state, size, options)

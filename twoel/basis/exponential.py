@@ -115,7 +115,7 @@ class ExponentialFamily(TrialFamily):
     size_meaning = "N, the number of exponential terms"
     default_size = 250
     min_size = 4
-    max_size = 4000
+    max_size = 3000
     optimize_by_default = False
     option_names = ()
     supported_L = (0, 1)
