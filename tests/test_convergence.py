@@ -33,6 +33,9 @@ def test_fast_apparent_ratio_is_not_trusted():
     energies = [-1 + 1e-3, -1 + 1e-5, -1 + 1e-7]  # ratio 0.01 -> tail floor at ratio 1/3
     est = estimate_tail(energies)
     assert est.tail_hartree == pytest.approx((1e-5 - 1e-7) * 0.5)
+    # the extrapolated value itself uses the measured ratio (exact for this geometric sequence)
+    assert est.extrapolated_hartree == pytest.approx(-1.0, abs=1e-12)
+    assert abs(est.extrapolated_hartree + 1.0) < est.extrapolated_bar_hartree
 
 
 def test_irregular_sequences_are_flagged():

@@ -19,8 +19,8 @@ Error bars
 ``variational error bar`` (what ``twoel energy`` reports for ``E_K``):
     ``2·tail + numerical error``; the true ``E_K - E_exact`` is positive and expected within it.
 ``extrapolated value``:
-    ``E_K - tail`` with the bar ``tail + numerical error`` (the whole correction is the
-    uncertainty).
+    ``E_K - d_K q/(1-q)`` with the *measured* ratio, and the bar ``tail + numerical error``
+    with the conservative one (the whole correction is the uncertainty).
 """
 
 from __future__ import annotations
@@ -106,16 +106,17 @@ def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
             note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
         reliable = reliable and 0 < q < 1
         q = MAX_RATIO
-    q = max(q, MIN_RATIO)
     d = max(abs(d_last), 0.0)
-    tail = d * q / (1.0 - q)
+    measured_tail = d * q / (1.0 - q) if q > 0 else 0.0  # best guess, for the extrapolation
+    q = max(q, MIN_RATIO)
+    tail = d * q / (1.0 - q)  # conservative, for the bars
     if d <= 2 * floor:
         note = note or "differences at the level of the arithmetic error: converged to it"
         tail = max(tail, floor)
     last = float(energies[-1])
     variational_bar = BAR_FACTOR * tail + floor
     extrapolated_bar = tail + floor
-    return TailEstimate(tail, q, last - tail, variational_bar, extrapolated_bar, reliable, note)
+    return TailEstimate(tail, q, last - measured_tail, variational_bar, extrapolated_bar, reliable, note)
 
 
 def trusted_digits(value: float, error_bar: float) -> int:

@@ -42,8 +42,11 @@ def add_parser(subparsers) -> None:
 def table_text(study) -> str:
     lines = [f"{study.ion} {study.state}  family {study.family}, {study.precision}",
              f"{'N':>6}  {'E(N) / Eh':<34} {'E(N-1) - E(N)':>13}  {'ratio':>7}  {'time/s':>7}"]
-    for n, t, d, q, s in zip(study.sizes, study.energy_texts, study.differences, study.ratios,
-                             study.seconds):
+    from ..precision import truncate_text
+
+    for n, t, u, d, q, s in zip(study.sizes, study.energy_texts, study.numerical_errors,
+                                study.differences, study.ratios, study.seconds):
+        t = truncate_text(t, u)  # digits below the arithmetic error are not shown
         dt = "" if d is None else f"{d:.3e}"
         qt = "" if q is None else f"{q:.3f}"
         lines.append(f"{n:>6}  {t:<34} {dt:>13}  {qt:>7}  {s:>7.2f}")
