@@ -171,7 +171,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         warnings.warn(text, AccuracyWarning, stacklevel=2)
     if refined is not None:
         notes.append(f"energy refined beyond float64: {refined.method} ({refined.working_bits} bits); "
-                     f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh")
+                     f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh; the virial ratio, "
+                     "condition number and dropped directions describe the float64 starting solve")
     if eig.n_dropped and refined is None:
         notes.append(f"{eig.n_dropped} near-dependent basis directions dropped "
                      f"(canonical orthogonalization, threshold {eig.drop_threshold:g})")
