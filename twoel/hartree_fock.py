@@ -333,6 +333,18 @@ def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 4
         scipy.optimize.minimize(objective, x0, method="Nelder-Mead",
                                 options={"initial_simplex": simplex, "xatol": 1e-7,
                                          "fatol": tolerance, "maxfev": max_evaluations})
+    # virial polish: at the optimal scale -V/T = 2 exactly (Fock 1930), so rescale a -> λa
+    for _ in range(3):
+        energy, params, sol = cache["best"]
+        if sol is None:
+            break
+        lam = -sol.potential / (2.0 * sol.kinetic)
+        if abs(lam - 1.0) < 1e-13:
+            break
+        before = energy
+        energy_at(params[0] * lam, params[1])
+        if cache["best"][0] >= before:
+            break
     energy, params, sol = cache["best"]
     if sol is None:
         raise ConvergenceError(f"no even-tempered basis of size {n} gave a converged SCF for Z = {Z:g}")

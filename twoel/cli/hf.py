@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 
 from .common import charge, energy_line, print_json, size_list
@@ -45,10 +46,31 @@ def _progress(enabled: bool):
     return update, bar
 
 
-def _convergence_frame(result):
+def _convergence_frame(result, as_text: bool = False):
+    """One row per basis size; ``as_text`` pre-formats the cells for the Markdown table."""
     import pandas as pd
 
-    return pd.DataFrame([s.to_dict() for s in result.convergence])
+    frame = pd.DataFrame([s.to_dict() for s in result.convergence])
+    if not as_text:
+        return frame
+    styles = {"size": "d", "a": ".10g", "b": ".10g", "energy_hartree": "r",
+              "orbital_energy_hartree": "r", "change_hartree": "+.2e", "virial_ratio": ".12f",
+              "orbital_overlap": ".8f", "evaluations": "d", "condition_number": ".2e"}
+    text = {}
+    for column in frame.columns:
+        style = styles.get(column, "r")
+        cells = []
+        for value in frame[column].tolist():
+            if value is None or (isinstance(value, float) and math.isnan(value)):
+                cells.append("—")
+            elif style == "r":
+                cells.append(repr(float(value)))
+            elif style == "d":
+                cells.append(str(int(value)))
+            else:
+                cells.append(format(float(value), style))
+        text[column] = cells
+    return pd.DataFrame(text)
 
 
 def summary_text(result, table: str) -> str:
@@ -79,7 +101,8 @@ def summary_text(result, table: str) -> str:
     lines.append(f"bound: {'yes' if result.bound else 'no'} (threshold -Z²/2 = "
                  f"{result.threshold_hartree:g} Eh)")
     if result.bound:
-        lines.append(energy_line("ionization energy", result.threshold_hartree - result.energy_hartree))
+        lines.append(energy_line("ionization energy from this energy",
+                                 result.threshold_hartree - result.energy_hartree))
     lines.append(f"virial ratio -V/T: {result.virial_ratio:.12f}")
     lines.append("convergence with basis size (energies in Eh):")
     lines.append(table.rstrip("\n"))
@@ -99,9 +122,23 @@ def run(args: argparse.Namespace) -> int:
         frame = correlation_table()
         if args.json:
             print_json(frame.to_dict(orient="records"))
-        else:
-            sys.stdout.write(render(frame, args.format,
-                                    caption="Correlation energies E_exact - E_HF, 1s² ground states"))
+            return 0
+        columns = ["Z", "ion", "exact_hartree", "hartree_fock_hartree", "correlation_hartree",
+                   "correlation_mhartree", "correlation_kcal_mol", "correlation_kj_mol",
+                   "correlation_cm1", "correlation_ev"]
+        compact = frame[columns].copy()
+        compact["Z"] = compact["Z"].astype(int)
+        if args.format == "markdown":
+            compact = compact.astype(object)
+            for c in columns[2:]:
+                compact[c] = [format(float(v), ".12g") for v in frame[c]]
+        sys.stdout.write(render(compact, args.format,
+                                caption="Correlation energies E_exact - E_HF, 1s² ground states"))
+        if args.format == "markdown":
+            sources = sorted(set(frame["exact_source"]) | set(frame["hartree_fock_source"]))
+            sys.stdout.write("sources: " + " | ".join(sources) + "\n")
+            sys.stdout.write("HF limits for Z = 4..10 are computed by twoel (see data/"
+                             "hartree_fock_limits.csv), not published values\n")
         return 0
     if args.Z is None:
         raise InputError("give --Z (or --correlation for the tabulated correlation energies)")
@@ -121,6 +158,6 @@ def run(args: argparse.Namespace) -> int:
     if args.json:
         print_json(result.to_dict())
         return 0
-    table = render(_convergence_frame(result), args.format)
+    table = render(_convergence_frame(result, as_text=args.format == "markdown"), args.format)
     sys.stdout.write(summary_text(result, table))
     return 0
