@@ -494,8 +494,14 @@ def hartree_fock_limit(Z, sizes=DEFAULT_SIZES, progress=None) -> HartreeFockResu
         notes.append("the 1s orbital energy is not negative: the Hartree-Fock orbital is not bound "
                      "at this nuclear charge and the basis result is an artefact")
     if estimate is not None and estimate > 1e-9:
-        notes.append(f"not converged to 1e-9 Eh: the last basis size changed the energy by "
+        notes.append(f"not converged to 1e-9 Eh: the last basis sizes changed the energy by up to "
                      f"{estimate:.1e} Eh; add larger sizes")
+    relativistic = Z**4 * constants.FINE_STRUCTURE.value**2 / 4.0
+    if relativistic > 1e-3:
+        notes.append(f"nonrelativistic energy (infinite nuclear mass): the leading relativistic "
+                     f"shift of 1s², about -Z⁴α²/4 = {-relativistic:.3g} Eh (hydrogenic estimate), "
+                     + ("exceeds" if relativistic > 0.04 else "is a sizeable fraction of")
+                     + " the correlation energy (~0.04 Eh); compare only with nonrelativistic values")
     if ion.is_model:
         notes.append(ion.note)
     reference = lookup(Z, "1^1S", HF_LIMIT) if not ion.is_model else None
