@@ -9,7 +9,6 @@ Check values and their sources:
   (thermochemical calorie 4.184 J; CODATA 2018/2022 Hartree energy × Avogadro; common practice).
 """
 
-import math
 
 import pytest
 

@@ -66,15 +66,28 @@ class SplitShellSolution:
     inner: np.ndarray
     outer: np.ndarray
     iterations: int
+    exponents: np.ndarray | None = None
 
     @property
     def virial_ratio(self) -> float:
         return -self.potential / self.kinetic
 
 
+def _project(exponents_new, overlap_new, exponents_old, coefficients_old) -> np.ndarray:
+    """Least-squares projection of an orbital onto another normalized 1s Slater basis."""
+    zn = np.asarray(exponents_new, dtype=float)[:, None]
+    zo = np.asarray(exponents_old, dtype=float)[None, :]
+    cross = 8.0 * (zn * zo) ** 1.5 / (zn + zo) ** 3   # <χ_i(ζ)|χ_j(ζ')> for normalized 1s
+    return np.linalg.lstsq(overlap_new, cross @ coefficients_old, rcond=None)[0]
+
+
 def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
-                       max_iterations: int = 2000) -> SplitShellSolution:
-    """Alternating optimization of the singlet-coupled two-orbital function in one basis."""
+                       max_iterations: int = 3000, start=None) -> SplitShellSolution:
+    """Alternating optimization of the singlet-coupled two-orbital function in one basis.
+
+    ``start = (old_exponents, inner, outer)`` projects orbitals of a nearby basis as the start
+    (used while the exponents are optimized); otherwise the bare-nucleus orbitals are used.
+    """
     ints = slater_integrals(exponents)
     X, _dropped, _cond = orthogonalizer(ints.overlap)
     m = X.shape[1]
@@ -86,6 +99,11 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
     vectors = np.linalg.eigh(h)[1]
     u = vectors[:, 0]
     v = (vectors[:, 0] + vectors[:, 1]) / math.sqrt(2.0) if m > 1 else vectors[:, 0]
+    if start is not None:
+        old_exponents, inner, outer = start
+        to_orthonormal = X.T @ ints.overlap
+        u = to_orthonormal @ _project(ints.exponents, ints.overlap, old_exponents, inner)
+        v = to_orthonormal @ _project(ints.exponents, ints.overlap, old_exponents, outer)
     identity = np.eye(m)
     previous = math.inf
     energy = math.inf
@@ -123,7 +141,8 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
         u, v = v, u
     if overlap < 0:
         v, overlap = -v, -overlap
-    return SplitShellSolution(energy, kinetic, energy - kinetic, overlap, X @ u, X @ v, iteration)
+    return SplitShellSolution(energy, kinetic, energy - kinetic, overlap, X @ u, X @ v, iteration,
+                              ints.exponents)
 
 
 @dataclass(frozen=True)
@@ -188,8 +207,10 @@ def _optimize(Z: float, n: int, starts, max_evaluations: int = 200):
 
     def energy_at(a, b):
         best["count"] += 1
+        previous = best["sol"]
+        start = None if previous is None else (previous.exponents, previous.inner, previous.outer)
         try:
-            sol = split_shell_energy(Z, even_tempered(a, b, n))
+            sol = split_shell_energy(Z, even_tempered(a, b, n), start=start)
         except TwoelError:
             return 1e6
         if sol.energy < best["energy"]:
