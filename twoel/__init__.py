@@ -11,6 +11,7 @@ Everything is in Hartree atomic units (Eh, bohr); laboratory units appear only a
 
 from ._version import __version__
 from .basis import family_names, get_family
+from .convergence import ConvergenceStudy, run_study
 from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
 from .pipeline import solve
@@ -28,4 +29,5 @@ __all__ = [
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
     "hartree_fock_limit", "split_shell_limit", "correlation_energy", "check_energy", "check_rows",
     "read_rows",
+    "ConvergenceStudy", "run_study",
 ]
