@@ -2,12 +2,15 @@
 
 Usage (from the repository root)::
 
-    python3 tools/optimize_boxes_excited.py --Z 2 --state 2^3S --size 200 --evaluations 400 [--write]
+    python3 tools/optimize_boxes_excited.py --Z 2 --state 2^3S --size 200 --evaluations 400 \
+        [--out best.json] [--write]
+    python3 tools/optimize_boxes_excited.py --merge best1.json best2.json ...
 
 The energy of the requested root is minimized over the box bounds (log scale, Nelder-Mead),
 starting from the stored boxes (or the generic guess).  ``--write`` merges the result into
 ``data/exponential_boxes_excited.json`` (written atomically), recording the size, energy,
-and date of the optimization.
+and date of the optimization; ``--out`` keeps the best entry so far in a file (checkpoint) and
+``--merge`` adds such files to the data file.
 """
 
 from __future__ import annotations
@@ -41,15 +44,51 @@ def energy_of(boxes, ion, state, size):
     return float(eig.values[state.root]), eig
 
 
+def _entry(boxes, ion, state, size, evaluations):
+    r6 = lambda pair: tuple(round(float(v), 6) for v in pair)  # noqa: E731
+    total = sum(b.fraction for b in boxes)
+    boxes = [xb.Box(round(b.fraction / total, 6), r6(b.alpha), r6(b.beta), r6(b.gamma)) for b in boxes]
+    e, _eig = energy_of(boxes, ion, state, size)
+    return {"Z": ion.Z, "state": state.label, "optimized_size": size, "energy_hartree": e,
+            "method": f"Nelder-Mead on log box edges ({evaluations} evaluations max), "
+                      "tools/optimize_boxes_excited.py",
+            "date": datetime.date.today().isoformat(),
+            "boxes": [b.to_dict() for b in boxes]}
+
+
+def _atomic_json(path: Path, data) -> None:
+    fd, tmp = tempfile.mkstemp(dir=path.parent, suffix=".tmp")
+    with os.fdopen(fd, "w") as handle:
+        json.dump(data, handle, indent=1)
+        handle.write("\n")
+    os.replace(tmp, path)
+
+
+def merge(entries) -> None:
+    path = ROOT / "data" / xb.DATA_FILE
+    data = json.loads(path.read_text()) if path.exists() else {"schema": xb.SCHEMA, "sets": []}
+    for entry in entries:
+        data["sets"] = [x for x in data["sets"]
+                        if not (float(x["Z"]) == float(entry["Z"]) and x["state"] == entry["state"])] + [entry]
+    data["sets"].sort(key=lambda x: (x["Z"], x["state"]))
+    _atomic_json(path, data)
+    print(f"wrote {path}", file=sys.stderr)
+
+
 def main(argv=None):
     p = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    p.add_argument("--Z", type=float, required=True)
-    p.add_argument("--state", required=True)
+    p.add_argument("--merge", nargs="+", default=None, help="merge checkpoint files into the data file")
+    p.add_argument("--out", default=None, help="checkpoint file of the best entry so far")
+    p.add_argument("--Z", type=float)
+    p.add_argument("--state")
     p.add_argument("--size", type=int, default=200)
     p.add_argument("--evaluations", type=int, default=300)
     p.add_argument("--write", action="store_true")
     p.add_argument("--from-state", default=None, help="start from the stored boxes of another state")
     args = p.parse_args(argv)
+    if args.merge:
+        merge([json.loads(Path(f).read_text()) for f in args.merge])
+        return
     ion, state = Ion(args.Z), State.parse(args.state)
     if args.from_state:
         start, origin = xb.default_boxes(ion, State.parse(args.from_state))
@@ -70,6 +109,7 @@ def main(argv=None):
 
     best = [np.inf, None]
     count = [0]
+    last = [0.0]
     t0 = time.time()
 
     def f(x):
@@ -83,36 +123,21 @@ def main(argv=None):
         if e < best[0]:
             best[0], best[1] = e, x.copy()
             print(f"{count[0]:5d} {time.time() - t0:7.1f}s E = {e:.12f}", file=sys.stderr, flush=True)
+            if args.out and time.time() - last[0] > 20:
+                last[0] = time.time()
+                _atomic_json(Path(args.out), _entry(unpack(x), ion, state, args.size, args.evaluations))
         return e
 
     e0 = f(x0)
     print(f"start ({origin}): {e0:.12f}", file=sys.stderr)
     minimize(f, x0, method="Nelder-Mead",
              options={"maxfev": args.evaluations, "xatol": 1e-4, "fatol": 1e-13, "adaptive": True})
-    boxes = unpack(best[1])
-    total = sum(b.fraction for b in boxes)
-    r6 = lambda pair: tuple(round(float(v), 6) for v in pair)  # noqa: E731
-    boxes = [xb.Box(round(b.fraction / total, 6), r6(b.alpha), r6(b.beta), r6(b.gamma)) for b in boxes]
-    e, eig = energy_of(boxes, ion, state, args.size)
-    entry = {"Z": ion.Z, "state": state.label, "optimized_size": args.size, "energy_hartree": e,
-             "method": f"Nelder-Mead on log box edges, {args.evaluations} evaluations max, "
-                       "tools/optimize_boxes_excited.py",
-             "date": datetime.date.today().isoformat(),
-              "boxes": [{"fraction": b.fraction, "alpha": list(b.alpha), "beta": list(b.beta),
-                        "gamma": list(b.gamma)} for b in boxes]}
+    entry = _entry(unpack(best[1]), ion, state, args.size, args.evaluations)
     print(json.dumps(entry, indent=1))
+    if args.out:
+        _atomic_json(Path(args.out), entry)
     if args.write:
-        path = ROOT / "data" / xb.DATA_FILE
-        data = json.loads(path.read_text()) if path.exists() else {"schema": xb.SCHEMA, "sets": []}
-        data["sets"] = [x for x in data["sets"]
-                           if not (float(x["Z"]) == ion.Z and x["state"] == state.label)] + [entry]
-        data["sets"].sort(key=lambda x: (x["Z"], x["state"]))
-        fd, tmp = tempfile.mkstemp(dir=path.parent, suffix=".tmp")
-        with os.fdopen(fd, "w") as handle:
-            json.dump(data, handle, indent=1)
-            handle.write("\n")
-        os.replace(tmp, path)
-        print(f"wrote {path}", file=sys.stderr)
+        merge([entry])
 
 
 if __name__ == "__main__":

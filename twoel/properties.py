@@ -131,16 +131,16 @@ def _half(*monomials):
     return [(0.5, m) for m in monomials]
 
 
-def _operators(Z: float) -> dict[str, list]:
+def _operators(Z: float, lam: float) -> dict[str, list]:
     f1 = _half((-1, 0, 0), (0, -1, 0))
     f12 = [(1.0, (0, 0, -1))]
     # V f for f = (1/r1 + 1/r2)/2 and f = 1/r12
     v_f1 = [(-0.5 * Z, (-2, 0, 0)), (-0.5 * Z, (0, -2, 0)), (-Z, (-1, -1, 0)),
-            (0.5, (-1, 0, -1)), (0.5, (0, -1, -1))]
-    v_f12 = [(-Z, (-1, 0, -1)), (-Z, (0, -1, -1)), (1.0, (0, 0, -2))]
+            (0.5 * lam, (-1, 0, -1)), (0.5 * lam, (0, -1, -1))]
+    v_f12 = [(-Z, (-1, 0, -1)), (-Z, (0, -1, -1)), (lam, (0, 0, -2))]
     # V² for <(E - V)²>
     v_sq = [(Z * Z, (-2, 0, 0)), (Z * Z, (0, -2, 0)), (2 * Z * Z, (-1, -1, 0)),
-            (-2 * Z, (-1, 0, -1)), (-2 * Z, (0, -1, -1)), (1.0, (0, 0, -2))]
+            (-2 * Z * lam, (-1, 0, -1)), (-2 * Z * lam, (0, -1, -1)), (lam * lam, (0, 0, -2))]
     ops = dict(HAMILTONIAN)
     ops.update({
         "r1": [("unit", _half((1, 0, 0), (0, 1, 0)))],
@@ -224,7 +224,8 @@ def _coalescence(basis, d: np.ndarray) -> dict[str, float]:
     return out
 
 
-def expectation_values(result_or_wavefunction, Z: float | None = None) -> ExpectationValues:
+def expectation_values(result_or_wavefunction, Z: float | None = None, *,
+                       repulsion: float = 1.0) -> ExpectationValues:
     """Expectation values and diagnostics of a state (see the module docstring).
 
     Parameters
@@ -233,6 +234,10 @@ def expectation_values(result_or_wavefunction, Z: float | None = None) -> Expect
         The state; its basis must be a correlated S basis or a P basis.
     Z : float, optional
         Nuclear charge; taken from the result when omitted.
+    repulsion : float
+        Scale ``λ`` of ``1/r12`` in the Hamiltonian ``T - Z/r1 - Z/r2 + λ/r12`` that the
+        regularized forms, ``⟨p1⁴⟩`` and the virial ratio assume (1 for the atom; 0 gives the
+        hydrogenic model, whose exact eigenfunctions check the formulas).
 
     Returns
     -------
@@ -245,12 +250,14 @@ def expectation_values(result_or_wavefunction, Z: float | None = None) -> Expect
     if isinstance(Z, bool) or not isinstance(Z, (int, float)) or not math.isfinite(Z) or Z <= 0:
         raise InputError(f"'Z' must be a positive nuclear charge, got {Z!r}")
     Z = float(Z)
+    if isinstance(repulsion, bool) or not isinstance(repulsion, (int, float)) or not math.isfinite(repulsion):
+        raise InputError(f"'repulsion' must be a finite number, got {repulsion!r}")
     basis, c, state = _unpack(result_or_wavefunction)
     if not hasattr(basis, "exponents") or not hasattr(basis, "powers"):
         raise UnsupportedError(f"expectation values need a correlated basis, not {type(basis).__name__}")
     kind = basis_kind(basis)
     notes = []
-    ops = _operators(Z)
+    ops = _operators(Z, float(repulsion))
     p4_ok = True
     try:
         mats = operator_matrices(basis, ops)
@@ -265,7 +272,7 @@ def expectation_values(result_or_wavefunction, Z: float | None = None) -> Expect
         raise InputError("the wave function has zero norm")
     v = {name: value / norm for name, value in values.items()}
     T = v["kinetic"]
-    V = -Z * v["nuclear"] + v["repulsion"]
+    V = -Z * v["nuclear"] + repulsion * v["repulsion"]
     E = T + V
     d = _primitive_coefficients(basis, c)
     co = {k: x / norm for k, x in _coalescence(basis, d).items()}
