@@ -70,28 +70,33 @@ def _convolve(terms, weight):
 
 
 class PairEngine:
-    """Bra/ket pair data of one basis, for the direct and the exchanged ket."""
+    """Bra/ket pair data of one basis (pairs ``(bra[n], ket[n])``), direct and exchanged ket."""
 
-    def __init__(self, basis, rows: np.ndarray | None = None):
+    def __init__(self, basis, bra: np.ndarray | None = None, ket: np.ndarray | None = None):
         self.basis = basis
         self.kind = basis_kind(basis)
         self.sign = float(basis.sign)
         powers, exponents = basis.powers, basis.exponents
-        self.rows = np.arange(powers.shape[0]) if rows is None else rows
+        P = powers.shape[0]
+        if bra is None:  # all pairs, as a (P, P) grid
+            bra, ket = (x.reshape(-1) for x in np.meshgrid(np.arange(P), np.arange(P), indexing="ij"))
+            self.shape = (P, P)
+        else:
+            self.shape = bra.shape
         self._sides = []
         for exchanged in (False, True):
             kp, ke = (powers[:, [1, 0, 2]], exponents[:, [1, 0, 2]]) if exchanged else (powers, exponents)
-            bp, be = powers[self.rows][:, None, :], exponents[self.rows][:, None, :]
-            kp2, ke2 = kp[None, :, :], ke[None, :, :]
-            args = (bp[..., 0], bp[..., 1], bp[..., 2], be[..., 0], be[..., 1], be[..., 2],
-                    kp2[..., 0], kp2[..., 1], kp2[..., 2], ke2[..., 0], ke2[..., 1], ke2[..., 2])
+            bp, be = powers[bra], exponents[bra]
+            kp2, ke2 = kp[ket], ke[ket]
+            args = (bp[:, 0], bp[:, 1], bp[:, 2], be[:, 0], be[:, 1], be[:, 2],
+                    kp2[:, 0], kp2[:, 1], kp2[:, 2], ke2[:, 0], ke2[:, 1], ke2[:, 2])
             total_e = be + ke2
-            integrals = PairIntegrals(total_e[..., 0], total_e[..., 1], total_e[..., 2])
-            base = tuple(bp[..., n] + kp2[..., n] for n in range(3))
+            integrals = PairIntegrals(total_e[:, 0], total_e[:, 1], total_e[:, 2])
+            base = tuple(bp[:, n] + kp2[:, n] for n in range(3))
             self._sides.append((exchanged, args, integrals, base))
 
     def primitive(self, pieces) -> np.ndarray:
-        """``<χ_p|O|(1 ± P12)χ_q>`` for rows ``p`` of the engine and all ``q``."""
+        """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
         out = None
         for exchanged, args, integrals, base in self._sides:
             acc = np.zeros(integrals.shape)
@@ -100,7 +105,7 @@ class PairEngine:
                 terms = [((0, 0, 0), 1.0)] if function is None else function(*args)
                 acc += evaluate_terms(integrals, _convolve(terms, weight), base)
             out = acc if out is None else out + self.sign * acc
-        return out
+        return out.reshape(self.shape)
 
 
 def contract(matrix: np.ndarray, contraction: np.ndarray | None) -> np.ndarray:
@@ -119,16 +124,20 @@ def operator_matrices(basis, operators: dict[str, list]) -> dict[str, np.ndarray
     ----------
     basis : CorrelatedBasis or PBasis
     operators : dict
-        Name to a list of ``(integrand, weight)`` pieces (see the module docstring).
+        Name to a list of ``(integrand, weight)`` pieces (see the module docstring); every
+        operator must be Hermitian and exchange symmetric (all of :data:`HAMILTONIAN` and of
+        :mod:`twoel.properties` are), so only the pairs ``p <= q`` are evaluated.
     """
     P = basis.powers.shape[0]
     raw = {name: np.zeros((P, P)) for name in operators}
-    step = max(1, _ROW_BLOCK_PAIRS // P)
-    for start in range(0, P, step):
-        rows = np.arange(start, min(P, start + step))
-        engine = PairEngine(basis, rows)
+    bra, ket = np.triu_indices(P)
+    for start in range(0, bra.shape[0], _ROW_BLOCK_PAIRS):
+        b, k = bra[start:start + _ROW_BLOCK_PAIRS], ket[start:start + _ROW_BLOCK_PAIRS]
+        engine = PairEngine(basis, b, k)
         for name, pieces in operators.items():
-            raw[name][rows] = engine.primitive(pieces)
+            values = engine.primitive(pieces)
+            raw[name][b, k] = values
+            raw[name][k, b] = values
     return {name: contract(m, basis.contraction) for name, m in raw.items()}
 
 

@@ -134,20 +134,43 @@ class PairIntegrals:
 
 
 class _KNodes:
-    """Quadrature nodes of ``K(p, q)`` for one pair of arrays, with cached inverse powers."""
+    """Quadrature nodes of ``K(p, q)`` for one pair of arrays, with cached inverse powers.
 
-    def __init__(self, A: np.ndarray, C: np.ndarray, order: int = QUADRATURE_ORDER):
-        u, w = _legendre(order)
-        M = np.sqrt(A * C)[:, None]
-        self.u = _Powers(np.broadcast_to(u, (A.shape[0], order)).copy())
-        self.ia = _Powers(1.0 / (u * A[:, None] + M * (1.0 - u)))
-        self.ic = _Powers(1.0 / (u * C[:, None] + M * (1.0 - u)))
-        self.wm = M * w
+    The number of nodes follows the ratio ``ρ = max(A, C)/min(A, C)`` that sets the distance of
+    the poles from the interval: 16 nodes for ``ρ <= 10``, 32 for ``ρ <= 200``, 64 beyond
+    (relative error below 1e-15 up to ``ρ ~ 2000``, ~1e-11 at ``ρ = 10⁴``).
+    """
+
+    GROUPS = ((10.0, 16), (200.0, 32), (np.inf, QUADRATURE_ORDER))
+
+    def __init__(self, A: np.ndarray, C: np.ndarray):
+        ratio = np.maximum(A, C) / np.minimum(A, C)
+        self.n = A.shape[0]
+        self.groups = []
+        lower = 0.0
+        for upper, order in self.GROUPS:
+            index = np.nonzero((ratio > lower) & (ratio <= upper) if lower else ratio <= upper)[0]
+            lower = upper
+            if index.size == 0:
+                continue
+            u, w = _legendre(order)
+            a, c = A[index, None], C[index, None]
+            M = np.sqrt(a * c)
+            ia = _Powers(1.0 / (u * a + M * (1.0 - u)))
+            ic = _Powers(1.0 / (u * c + M * (1.0 - u)))
+            up = _Powers(np.broadcast_to(u, (index.size, order)).copy())
+            self.groups.append((index, up, ia, ic, M * w))
 
     def value(self, p: int, q: int) -> np.ndarray:
         if p + q < 2:
             raise InputError("K(p, q) diverges for p + q < 2")
-        return np.einsum("ij,ij->i", self.u(p + q - 2) * self.ia(p) * self.ic(q), self.wm)
+        out = np.empty(self.n)
+        for index, up, ia, ic, wm in self.groups:
+            integrand = ia(p) * ic(q) if p and q else (ia(p) if p else ic(q))
+            if p + q > 2:
+                integrand = integrand * up(p + q - 2)
+            out[index] = np.einsum("ij,ij->i", integrand, wm)
+        return out
 
 
 def k_integral(A, C, p: int, q: int, order: int = QUADRATURE_ORDER) -> np.ndarray:
