@@ -14,6 +14,8 @@ from .basis import family_names, get_family
 from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
 from .pipeline import solve
+from .properties import ExpectationValues, expectation_values
+from .states import Transition, solve_state, transition
 from .results import EnergyResult
 from .system import Ion, State
 
@@ -21,4 +23,5 @@ __all__ = [
     "__version__", "solve", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
+    "solve_state", "transition", "Transition", "expectation_values", "ExpectationValues",
 ]
