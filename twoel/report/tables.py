@@ -23,7 +23,10 @@ def _cell(value, float_format: str | None = None) -> str:
     if isinstance(value, bool):
         return "yes" if value else "no"
     if isinstance(value, float):
+        value = float(value)  # numpy scalars print as np.float64(...) under repr
         return format(value, float_format) if float_format else repr(value)
+    if hasattr(value, "item") and not isinstance(value, str):
+        return _cell(value.item(), float_format)
     return str(value)
 
 
@@ -55,6 +58,8 @@ def latex_escape(text: str) -> str:
 def _latex_cell(value, float_format: str | None = None) -> str:
     if value is None or (isinstance(value, float) and math.isnan(value)):
         return "---"
+    if hasattr(value, "item") and not isinstance(value, str):
+        value = value.item()
     if isinstance(value, float):
         text = format(value, float_format) if float_format else repr(value)
         if "e" in text:
