@@ -77,6 +77,7 @@ def test_hydrogenic_1s2p_exact_values(sign):
     assert v.delta_r1 == pytest.approx(Z**3 / (2 * math.pi), rel=1e-13)
     assert v.delta_r1_regularized == pytest.approx(Z**3 / (2 * math.pi), rel=1e-12)
     assert v.virial_ratio == pytest.approx(2.0, rel=1e-13)
+    assert v.cusp_nucleus == pytest.approx(-Z, rel=1e-13)  # the 1s electron's Kato cusp
 
 
 def test_ground_state_small_basis(ground):
@@ -158,6 +159,8 @@ def test_properties_cli_json(capsys):
     ev = data["expectation_values"]
     assert ev["virial_ratio"] == pytest.approx(2.0, abs=1e-5)
     assert ev["units"]["delta_r1"] == "bohr^-3"
+    assert ev["cusp_nucleus"] == pytest.approx(-2.0, abs=0.02)
+    assert ev["cusp_electron"] == "nan"  # triplet: undefined (standard JSON has no NaN)
 
 
 @pytest.mark.slow

@@ -36,8 +36,8 @@ Cusp ratios (Kato, Commun. Pure Appl. Math. 10, 151 (1957))
     ``cusp_nucleus = ⟨δ³(r1) ∂/∂r1⟩ / ⟨δ³(r1)⟩`` (exact: ``-Z``) and
     ``cusp_electron = ⟨δ³(r12) ∂/∂r12⟩ / ⟨δ³(r12)⟩`` (exact: ``1/2`` for singlets).  Triplet
     wave functions vanish at ``r12 = 0``, so their electron cusp ratio is undefined (``nan``).
-    Both derivatives are spherically averaged; they are evaluated for S states only (``nan`` for
-    P states, with a note).
+    Both derivatives are spherically averaged (for P states the derivative of the ``z`` factor
+    averages to zero at the coalescence point, so the same pair formulas apply).
 """
 
 from __future__ import annotations
@@ -212,15 +212,14 @@ def _coalescence(basis, d: np.ndarray) -> dict[str, float]:
             lam = te[..., rest[0]] + te[..., rest[1]]
             value = np.where(mask, _radial_moment(n, np.where(mask, lam, 1.0), angular), 0.0)
             out[f"delta_{name}"] += weight * float(d @ value @ d)
-            if kind == "S":
-                # spherically averaged d/dr of the ket at the coalescence point
-                ket_i = kp[None, :, index]
-                slope = np.where(ket_i == 0, -ke[None, :, index], np.where(ket_i == 1, 1.0, 0.0))
-                bra_ok = bp[..., index] == 0
-                n1 = (tp[..., rest[0]] + tp[..., rest[1]]).astype(float)
-                mom = _radial_moment(n1, np.where(bra_ok, lam, 1.0))
-                value = np.where(bra_ok & (ket_i <= 1), slope * mom, 0.0)
-                out[f"cusp_{name}"] += weight * float(d @ value @ d)
+            # spherically averaged d/dr of the ket at the coalescence point (for P kets the
+            # derivative of the z factor averages to zero there)
+            ket_i = kp[None, :, index]
+            slope = np.where(ket_i == 0, -ke[None, :, index], np.where(ket_i == 1, 1.0, 0.0))
+            bra_ok = bp[..., index] == 0
+            mom = _radial_moment(n, np.where(bra_ok, lam, 1.0), angular)
+            value = np.where(bra_ok & (ket_i <= 1), slope * mom, 0.0)
+            out[f"cusp_{name}"] += weight * float(d @ value @ d)
     return out
 
 
@@ -280,18 +279,13 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
     delta_r12 = co["delta_r12"]
     delta_r1_reg = (4.0 * (E * v["inv_r1"] - v["v_f1"]) - 2.0 * v["grad_f1"]) / FOUR_PI
     delta_r12_reg = (2.0 * (E * v["inv_r12"] - v["v_f12"]) - v["grad_f12"]) / FOUR_PI
-    if kind == "S":
-        cusp_nucleus = 0.5 * (co["cusp_r1"] + co["cusp_r2"]) / delta_r1 if delta_r1 > 0 else float("nan")
-        if basis.sign > 0 and delta_r12 > 0:
-            cusp_electron = co["cusp_r12"] / delta_r12
-        else:
-            cusp_electron = float("nan")
-            notes.append("electron-electron cusp undefined: the triplet wave function vanishes at r12 = 0")
+    cusp_nucleus = 0.5 * (co["cusp_r1"] + co["cusp_r2"]) / delta_r1 if delta_r1 > 0 else float("nan")
+    if basis.sign > 0 and delta_r12 > 0:
+        cusp_electron = co["cusp_r12"] / delta_r12
     else:
-        cusp_nucleus = cusp_electron = float("nan")
-        notes.append("cusp ratios are evaluated for S states only")
-    if kind == "P" and basis.sign < 0:
-        notes.append("⟨δ³(r12)⟩ vanishes for a triplet (antisymmetric spatial function)")
+        cusp_electron = float("nan")
+        notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
+                     "r12 = 0, so ⟨δ³(r12)⟩ = 0")
     if p4_ok:
         e_minus_v_sq = E * E - 2.0 * E * V + v["v_squared"]
         p1_fourth = 2.0 * e_minus_v_sq - v["lap1lap2"]
