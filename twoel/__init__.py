@@ -15,6 +15,8 @@ from .convergence import ConvergenceStudy, run_study
 from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
 from .pipeline import solve
+from .properties import ExpectationValues, expectation_values
+from .states import Transition, solve_state, transition
 from .results import EnergyResult
 from .system import Ion, State
 from .check_input import read_rows
@@ -27,6 +29,7 @@ __all__ = [
     "__version__", "solve", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
+    "solve_state", "transition", "Transition", "expectation_values", "ExpectationValues",
     "hartree_fock_limit", "split_shell_limit", "correlation_energy", "check_energy", "check_rows",
     "read_rows",
     "ConvergenceStudy", "run_study",
