@@ -50,7 +50,7 @@ def to_decimal(value) -> Decimal:
 def plain(value: Decimal) -> str:
     """Fixed-point text of a Decimal (never scientific notation)."""
     text = format(value, "f")
-    return "0" + text[1:] if text.startswith("-") and set(text[1:]) <= set("0.") else text
+    return text[1:] if text.startswith("-") and set(text[1:]) <= set("0.") else text
 
 
 def round_to_decimals(value, decimals: int) -> str:

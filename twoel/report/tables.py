@@ -146,8 +146,9 @@ def select_columns(frame: pd.DataFrame, columns=None) -> list[str]:
 
 
 def _shown_columns(columns: list[str]) -> list[str]:
-    """Columns people see: an uncertainty column folded into its value column is dropped."""
+    """Columns people see: uncertainty and exact-text columns folded into their value column."""
     folded = {UNCERTAINTY_COLUMNS[c] for c in columns if UNCERTAINTY_COLUMNS.get(c) in columns}
+    folded |= {TEXT_COLUMNS[c] for c in columns if TEXT_COLUMNS.get(c) in columns}
     return [c for c in columns if c not in folded]
 
 
