@@ -163,6 +163,14 @@ def pair_distribution_figure(r12_bohr, pair_per_bohr, hartree_fock_per_bohr=None
     return fig
 
 
+def _term_label(label: str) -> str:
+    """``2^3S`` -> mathtext ``$2\\,{}^{3}\\mathrm{S}$``; other labels unchanged."""
+    import re
+
+    m = re.match(r"^(\d+)\^(\d+)([SPDFGHIK])$", label)
+    return rf"${m.group(1)}\,{{}}^{{{m.group(2)}}}\mathrm{{{m.group(3)}}}$" if m else label
+
+
 def level_diagram_figure(labels, energy_hartree, thresholds_hartree=None, title: str | None = None):
     """Energy-level diagram: one horizontal bar per computed state (Eh), optional thresholds."""
     labels = [str(x) for x in labels]
@@ -179,7 +187,7 @@ def level_diagram_figure(labels, energy_hartree, thresholds_hartree=None, title:
         ax.axhline(value, ls="--", color="grey", lw=0.8)
         ax.annotate(name, (len(labels) - 0.5, value), textcoords="offset points", xytext=(0, 3),
                     ha="right", fontsize="x-small", color="grey")
-    ax.set_xticks(range(len(labels)), labels)
+    ax.set_xticks(range(len(labels)), [_term_label(x) for x in labels])
     ax.set_xlim(-0.6, len(labels) - 0.4)
     ax.set_xlabel("state")
     ax.set_ylabel(r"energy / $E_\mathrm{h}$")
