@@ -238,3 +238,18 @@ def test_demo_command_runs(tmp_path):
                            str(tmp_path / "demo")], capture_output=True, text=True, cwd=ROOT, timeout=300)
     assert done.returncode == 0, done.stderr
     assert (tmp_path / "demo" / "index.md").is_file()
+
+
+def test_toml_config_and_name_option(tmp_path):
+    (tmp_path / "study.toml").write_text('name = "toml-study"\n[series]\nZ = "2"\nsize = 0\n', encoding="utf-8")
+    config = build.load_config(tmp_path / "study.toml")
+    assert build.normalize_config(config)["series"] == {"size": 0, "Z": [2.0]}
+    done = subprocess.run([sys.executable, "-m", "twoel", "report", "--quiet", "--config",
+                           str(tmp_path / "study.toml"), "--name", "named"], capture_output=True,
+                          text=True, cwd=tmp_path,
+                          env={**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), os.environ.get("PYTHONPATH", "")])})
+    assert done.returncode == 0, done.stderr
+    assert (tmp_path / "reports" / "named" / "tables" / "series.csv").is_file()
+    (tmp_path / "bad.json").write_text("{not json", encoding="utf-8")
+    with pytest.raises(InputError, match="not valid JSON"):
+        build.load_config(tmp_path / "bad.json")

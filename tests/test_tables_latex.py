@@ -2,6 +2,7 @@
 formats, column choice and citation keys."""
 
 import io
+import shutil
 import json
 import subprocess
 import sys
@@ -119,3 +120,29 @@ def test_series_command_columns_option():
 def test_latex_text_helpers():
     assert latex_text("2^3S and 10% of x_1") == r"$2\,^{3}\mathrm{S}$ and 10\% of x\_1"
     assert latex_ion("H-") == r"H$^{-}$" and latex_ion("Z=1.5") == "Z=1.5"
+
+
+@pytest.mark.skipif(tex_engine() is None or shutil.which("bibtex") is None, reason="no TeX engine/bibtex")
+def test_citations_resolve_against_references_bib(tmp_path):
+    # the \cite keys of a table resolve with BibTeX against data/references.bib (no "undefined")
+    from pathlib import Path
+
+    bib = Path(__file__).resolve().parent.parent / "data" / "references.bib"
+    shutil.copy(bib, tmp_path / "references.bib")
+    table = subprocess.run([sys.executable, "-m", "twoel", "series", "--Z", "1:2", "--size", "0",
+                            "--format", "latex", "--quiet"], capture_output=True, text=True, check=True).stdout
+    (tmp_path / "doc.tex").write_text(
+        "\\documentclass{article}\n\\usepackage{booktabs}\n\\usepackage[margin=5mm,landscape]{geometry}\n"
+        "\\begin{document}\n" + table + "\\nocite{*}\\bibliographystyle{plain}\\bibliography{references}\n"
+        "\\end{document}\n", encoding="utf-8")
+    engine = tex_engine()
+    for command in ([engine, "-interaction=nonstopmode", "doc.tex"], ["bibtex", "doc"],
+                    [engine, "-interaction=nonstopmode", "doc.tex"], [engine, "-interaction=nonstopmode", "doc.tex"]):
+        done = subprocess.run(command, cwd=tmp_path, capture_output=True, text=True, timeout=120)
+        assert done.returncode == 0, done.stdout[-1500:]
+    log = (tmp_path / "doc.log").read_text(errors="replace")
+    assert "undefined" not in log.lower()
+    import re
+
+    n_entries = len(re.findall(r"^@\w+\s*\{", bib.read_text(encoding="utf-8"), flags=re.M))
+    assert (tmp_path / "doc.bbl").read_text().count("\\bibitem") == n_entries >= 3

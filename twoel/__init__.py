@@ -15,10 +15,11 @@ from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDepend
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
 from .pipeline import solve
 from .results import EnergyResult
+from .sweep import solve_many
 from .system import Ion, State
 
 __all__ = [
-    "__version__", "solve", "EnergyResult", "Ion", "State", "family_names", "get_family",
+    "__version__", "solve", "solve_many", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
 ]
