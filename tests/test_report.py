@@ -253,3 +253,13 @@ def test_toml_config_and_name_option(tmp_path):
     (tmp_path / "bad.json").write_text("{not json", encoding="utf-8")
     with pytest.raises(InputError, match="not valid JSON"):
         build.load_config(tmp_path / "bad.json")
+
+
+def test_correlation_figure_appears_when_hartree_fock_limits_exist(tmp_path, monkeypatch):
+    # HF limits: C. Froese Fischer, The Hartree-Fock Method for Atoms (Wiley, 1977); Z = 2 also
+    # Bunge et al., Phys. Rev. A 46, 3691 (1992) (values as curated in shared/REFERENCE-VALUES.md)
+    limits = {1.0: -0.48792973437, 2.0: -2.861679995612}
+    monkeypatch.setattr(build, "_hartree_fock_limits", lambda charges: limits)
+    build.build_report({"name": "hf", "series": {"Z": [1, 2], "size": 1}}, tmp_path / "hf")
+    assert (tmp_path / "hf" / "figures" / "correlation.svg").is_file()
+    assert "correlation.png" in (tmp_path / "hf" / "index.md").read_text(encoding="utf-8")
