@@ -263,3 +263,11 @@ def test_correlation_figure_appears_when_hartree_fock_limits_exist(tmp_path, mon
     build.build_report({"name": "hf", "series": {"Z": [1, 2], "size": 1}}, tmp_path / "hf")
     assert (tmp_path / "hf" / "figures" / "correlation.svg").is_file()
     assert "correlation.png" in (tmp_path / "hf" / "index.md").read_text(encoding="utf-8")
+
+
+def test_spectroscopy_caveat_numbers():
+    # He: exact nonrelativistic ionization energy 0.903 724 377 Eh (Schwartz 2006) times
+    # 219 474.631 36 cm-1/Eh (CODATA 2018/2022 hartree-inverse metre) = 198 344.6 cm-1; measured
+    # 198 310.666 37(20) cm-1 (Kandula et al., Phys. Rev. A 84, 062512 (2011)).
+    text = build._caveat()
+    assert "198344.6 cm-1" in text and "34 cm-1" in text and "Kandula" in text
