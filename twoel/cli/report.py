@@ -21,7 +21,7 @@ def add_parser(subparsers) -> None:
     source = p.add_mutually_exclusive_group()
     source.add_argument("--config", metavar="FILE", help="report configuration (JSON or TOML)")
     source.add_argument("--demo", action="store_true",
-                        help="the built-in demo: a short isoelectronic study (a few seconds)")
+                        help="the built-in demo: a short isoelectronic study for an invented scenario (well under a minute)")
     source.add_argument("--from-provenance", metavar="FILE", dest="from_provenance",
                         help="re-run the report recorded in a provenance.json and compare every number")
     where = p.add_mutually_exclusive_group()
