@@ -61,6 +61,11 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
     Returns
     -------
     list of EnergyResult
+
+    Notes
+    -----
+    Workers are started with the ``spawn`` method, so a script that calls this with
+    ``jobs > 1`` needs the usual ``if __name__ == "__main__":`` guard.
     """
     from .cli.progress import iterate
 
