@@ -2,7 +2,7 @@
 
 :func:`solve_many` runs a list of keyword sets through :func:`twoel.solve` either in this process
 (``jobs=1``) or in a :class:`concurrent.futures.ProcessPoolExecutor` (``jobs > 1``; ``jobs=0``
-means one worker per core; workers are started fresh with one BLAS thread each).  Results come back in the order of the tasks whatever the order in
+means one worker per core).  Results come back in the order of the tasks whatever the order in
 which workers finish, and every task is the same deterministic computation, so a parallel sweep
 gives bit-for-bit the numbers of a serial one.
 
@@ -14,7 +14,6 @@ bars go to stderr only when asked for and stderr is a terminal.
 
 from __future__ import annotations
 
-import contextlib
 import math
 import os
 from typing import Sequence
@@ -64,8 +63,10 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
 
     Notes
     -----
-    Workers are started with the ``spawn`` method, so a script that calls this with
-    ``jobs > 1`` needs the usual ``if __name__ == "__main__":`` guard.
+    Workers are forked where the platform allows (else spawned: then a script that calls this
+    with ``jobs > 1`` needs the usual ``if __name__ == "__main__":`` guard).  For the small
+    matrices of these bases a multi-threaded BLAS is slower, not faster, on a busy machine:
+    ``OPENBLAS_NUM_THREADS=1`` in the environment speeds up serial and parallel runs alike.
     """
     from .cli.progress import iterate
 
@@ -76,36 +77,18 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor
 
-    # Fresh ("spawn") workers with one BLAS thread each: N workers then use N cores instead of
-    # N x (BLAS threads), which for the small matrices here is much faster, and no thread state
-    # is inherited through fork.
-    with _single_threaded_blas_environment():
-        with ProcessPoolExecutor(max_workers=workers,
-                                 mp_context=multiprocessing.get_context("spawn")) as pool:
-            mapped = pool.map(_solve_task, tasks, chunksize=1)  # yields in submission order
-            bar = iterate(range(len(tasks)), description, enabled=progress)
-            results = []
-            for _ in bar:
-                results.append(next(mapped))
-            return results
-
-
-_THREAD_VARIABLES = ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS")
-
-
-@contextlib.contextmanager
-def _single_threaded_blas_environment():
-    """Set the BLAS thread counts to 1 for processes started inside the block (then restore)."""
-    saved = {name: os.environ.get(name) for name in _THREAD_VARIABLES}
-    os.environ.update({name: "1" for name in _THREAD_VARIABLES})
-    try:
-        yield
-    finally:
-        for name, value in saved.items():
-            if value is None:
-                os.environ.pop(name, None)
-            else:
-                os.environ[name] = value
+    # Forked workers are copies of this process, BLAS thread settings included, so each task
+    # runs exactly the code path (and gives exactly the bits) of a serial run.  Where fork does
+    # not exist, spawned workers inherit the environment (OPENBLAS_NUM_THREADS and friends).
+    method = "fork" if "fork" in multiprocessing.get_all_start_methods() else "spawn"
+    with ProcessPoolExecutor(max_workers=workers,
+                             mp_context=multiprocessing.get_context(method)) as pool:
+        mapped = pool.map(_solve_task, tasks, chunksize=1)  # yields in submission order
+        bar = iterate(range(len(tasks)), description, enabled=progress)
+        results = []
+        for _ in bar:
+            results.append(next(mapped))
+        return results
 
 
 def _reference_columns(result) -> dict:
