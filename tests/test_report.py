@@ -258,11 +258,17 @@ def test_toml_config_and_name_option(tmp_path):
 def test_correlation_figure_appears_when_hartree_fock_limits_exist(tmp_path, monkeypatch):
     # HF limits: C. Froese Fischer, The Hartree-Fock Method for Atoms (Wiley, 1977); Z = 2 also
     # Bunge et al., Phys. Rev. A 46, 3691 (1992) (values as curated in shared/REFERENCE-VALUES.md)
-    limits = {1.0: -0.48792973437, 2.0: -2.861679995612}
+    from twoel.reference import ReferenceValue
+
+    limits = {z: ReferenceValue("froesefischer1977", z, "1^1S", "hartree_fock_limit", v, repr(v), "hartree",
+                                1e-11, "numerical HF", "C. Froese Fischer (1977)", "", "test")
+              for z, v in {1.0: -0.48792973437, 2.0: -2.861679995612}.items()}
     monkeypatch.setattr(build, "_hartree_fock_limits", lambda charges: limits)
     build.build_report({"name": "hf", "series": {"Z": [1, 2], "size": 1}}, tmp_path / "hf")
     assert (tmp_path / "hf" / "figures" / "correlation.svg").is_file()
-    assert "correlation.png" in (tmp_path / "hf" / "index.md").read_text(encoding="utf-8")
+    index = (tmp_path / "hf" / "index.md").read_text(encoding="utf-8")
+    assert "correlation.png" in index and "[froesefischer1977]" in index
+    assert "@book{froesefischer1977" in (tmp_path / "hf" / "references.bib").read_text(encoding="utf-8")
 
 
 def test_spectroscopy_caveat_numbers():

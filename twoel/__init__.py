@@ -17,9 +17,16 @@ from .pipeline import solve
 from .results import EnergyResult
 from .sweep import solve_many
 from .system import Ion, State
+from .check_input import read_rows
+from .checking import check_energy, check_rows
+from .correlation import correlation_energy
+from .hartree_fock import hartree_fock_limit
+from .split_shell import split_shell_limit
 
 __all__ = [
     "__version__", "solve", "solve_many", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
+    "hartree_fock_limit", "split_shell_limit", "correlation_energy", "check_energy", "check_rows",
+    "read_rows",
 ]

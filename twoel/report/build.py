@@ -222,14 +222,14 @@ class ReportResult:
                 "reproduction": self.reproduction, "notes": list(self.notes)}
 
 
-def _hartree_fock_limits(charges) -> dict[float, float]:
-    """HF limits (Eh) tabulated in ``data/`` for these charges (empty until such a table exists)."""
+def _hartree_fock_limits(charges) -> dict:
+    """HF limits tabulated in ``data/`` for these charges: ``{Z: ReferenceValue}`` (Eh)."""
     from ..reference import all_references
 
     found = {}
     for ref in all_references():
         if "hartree_fock" in ref.quantity and ref.state in ("", "1^1S") and ref.Z in charges:
-            found.setdefault(ref.Z, ref.value)
+            found.setdefault(ref.Z, ref)
     return found
 
 
@@ -443,7 +443,7 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     for (name, _task), result in zip(flat, results):
         by_section.setdefault(name, []).append(result)
 
-    frames, page, files, notes = {}, _Page(), [], []
+    frames, page, files, notes, hf_refs = {}, _Page(), [], [], []
     page.heading(1, config["title"])
     if config["scenario"]:
         page.paragraph(config["scenario"])
@@ -467,9 +467,13 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
             hf = _hartree_fock_limits(list(frame["Z"]))
             if len(hf) >= 2:
                 rows = frame[frame["Z"].isin(list(hf))]
-                fig = plots.correlation_figure(rows["Z"], rows["energy_hartree"], [hf[z] for z in rows["Z"]])
+                refs = rows["reference_hartree"]
+                hf_refs.extend(hf[z] for z in rows["Z"])
+                fig = plots.correlation_figure(rows["Z"], rows["energy_hartree"], [hf[z].value for z in rows["Z"]],
+                                               reference_hartree=None if refs.isna().any() else refs)
                 files += _write_figure(folder, "correlation", fig,
-                                       "Correlation energy E - E_HF (HF limits from data/)", page)
+                                       "Correlation energy: computed and published energies minus the "
+                                       "Hartree-Fock limits of data/hartree_fock_limits.csv", page)
         if "convergence" in by_section:
             frame = convergence_frame(config["convergence"]["Z"], config["convergence"]["sizes"], {},
                                       results=by_section["convergence"])
@@ -506,18 +510,18 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
         for result in {id(r): r for r in results}.values():
             for text in result.warnings:
                 notes.append(f"{result.ion} {result.state} (size {result.size}): {text}")
-        keys = sorted({r.reference.key for r in results if r.reference is not None})
+        cited = [r.reference for r in results if r.reference is not None] + hf_refs
+        keys = sorted({ref.key for ref in cited})
         if keys:
             atomic_write_text(folder / "references.bib", _bib_entries(keys))
             files.append("references.bib")
             sources = {}
-            for r in results:
-                if r.reference is not None:
-                    entry = sources.setdefault(r.reference.key, [r.reference.source, False])
-                    entry[1] |= "from memory" in r.reference.note.lower()
+            for ref in cited:
+                entry = sources.setdefault(ref.key, [ref.source, False])
+                entry[1] |= "from memory" in ref.note.lower()
             page.heading(2, "References")
             page.items(f"[{key}] {src}" + (" (some values quoted from memory; see the note "
-                                           "column of data/reference_energies.csv)" if memory else "")
+                                           "column of the tables in data/)" if memory else "")
                        for key, (src, memory) in sorted(sources.items()))
             page.paragraph("BibTeX entries for these keys (cited by the .tex tables): references.bib.")
         if notes:

@@ -111,13 +111,19 @@ def residual_figure(Z, residual_hartree, label: str = r"$E - E_\mathrm{ref}$", t
     return fig
 
 
-def correlation_figure(Z, energy_hartree, hartree_fock_hartree, title: str | None = None):
-    """Correlation energy ``E − E_HF`` (mEh) against Z."""
+def correlation_figure(Z, energy_hartree, hartree_fock_hartree, reference_hartree=None,
+                       title: str | None = None):
+    """Correlation energy ``E − E_HF`` (mEh) against Z; with ``reference_hartree`` also the
+    full correlation energy ``E_ref − E_HF`` of the published energies."""
     z, e, hf = _arrays(("Z", Z), ("energy_hartree", energy_hartree),
                        ("hartree_fock_hartree", hartree_fock_hartree))
     fig = _figure()
     ax = fig.add_subplot()
-    ax.plot(z, 1e3 * (e - hf), "o-")
+    ax.plot(z, 1e3 * (e - hf), "o-", label="computed E − E_HF")
+    if reference_hartree is not None:
+        (ref,) = _arrays(("reference_hartree", reference_hartree))
+        ax.plot(z, 1e3 * (ref - hf), "s--", label="published E_ref − E_HF")
+        ax.legend(fontsize="small")
     ax.set_xlabel("nuclear charge Z")
     ax.set_ylabel(r"correlation energy $E - E_\mathrm{HF}$ / m$E_\mathrm{h}$")
     ax.grid(True, alpha=0.3)

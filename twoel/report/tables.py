@@ -167,11 +167,24 @@ def _number_text(row, column: str, columns: list[str], max_decimals: int | None)
     return format_uncertain(value, uncertainty, max_decimals=max_decimals)
 
 
-def _display_cell(row, column: str, columns: list[str], style: str, max_decimals: int | None) -> str:
-    """One cell for ``style`` in ``("markdown", "latex", "html")``."""
+def _display_cell(row, column: str, columns: list[str], style: str, max_decimals: int | None,
+                  formats: dict | None = None) -> str:
+    """One cell for ``style`` in ``("markdown", "latex", "html")``.
+
+    A format spec in ``formats[column]`` (e.g. ``".12f"``) prints a float exactly so, ungrouped.
+    """
     value = row[column]
     if _missing(value):
         return "---" if style == "latex" else "—"
+    spec = (formats or {}).get(column)
+    if spec and (isinstance(value, float) or getattr(getattr(value, "dtype", None), "kind", "") == "f"):
+        text = format(float(value), spec)
+        if style != "latex":
+            return text
+        if "e" in text:
+            mantissa, exponent = text.split("e")
+            return "$" + mantissa + r"\times 10^{" + str(int(exponent)) + "}$"
+        return "$" + text + "$"
     if isinstance(value, (bool,)) or type(value).__name__ == "bool_":
         return "yes" if value else "no"
     if column in CITATION_COLUMNS:
@@ -213,15 +226,20 @@ def _numeric(frame: pd.DataFrame, column: str) -> bool:
     return pd.api.types.is_numeric_dtype(frame[column]) and not pd.api.types.is_bool_dtype(frame[column])
 
 
-def to_markdown(frame: pd.DataFrame, columns=None, max_decimals: int | None = 15) -> str:
-    """A GitHub-style pipe table with grouped digits and concise uncertainties."""
+def to_markdown(frame: pd.DataFrame, formats: dict[str, str] | None = None, columns=None,
+                max_decimals: int | None = 15) -> str:
+    """A GitHub-style pipe table with grouped digits and concise uncertainties.
+
+    ``formats`` maps a column to a format spec (``".12f"``) printed as is, without grouping.
+    """
     columns = select_columns(frame, columns)
     shown = _shown_columns(columns)
     header = "| " + " | ".join(_header(c, "markdown") for c in shown) + " |"
     rule = "|" + "|".join("---:" if _numeric(frame, c) else "---" for c in shown) + "|"
     lines = [header, rule]
     for _, row in frame.iterrows():
-        cells = [_display_cell(row, c, columns, "markdown", max_decimals).replace("|", r"\|") for c in shown]
+        cells = [_display_cell(row, c, columns, "markdown", max_decimals, formats).replace("|", r"\|")
+                 for c in shown]
         lines.append("| " + " | ".join(cells) + " |")
     return "\n".join(lines) + "\n"
 
@@ -234,8 +252,8 @@ def to_csv(frame: pd.DataFrame, columns=None) -> str:
     return buffer.getvalue()
 
 
-def to_latex(frame: pd.DataFrame, caption: str | None = None, columns=None, label: str | None = None,
-             max_decimals: int | None = 15) -> str:
+def to_latex(frame: pd.DataFrame, caption: str | None = None, formats: dict[str, str] | None = None,
+             columns=None, label: str | None = None, max_decimals: int | None = 15) -> str:
     """A booktabs ``tabular`` (inside ``table`` when a caption is given)."""
     columns = select_columns(frame, columns)
     shown = _shown_columns(columns)
@@ -248,7 +266,8 @@ def to_latex(frame: pd.DataFrame, caption: str | None = None, columns=None, labe
     lines += [rf"\begin{{tabular}}{{{align}}}", r"\toprule",
               " & ".join(_header(c, "latex") for c in shown) + r" \\", r"\midrule"]
     for _, row in frame.iterrows():
-        lines.append(" & ".join(_display_cell(row, c, columns, "latex", max_decimals) for c in shown) + r" \\")
+        lines.append(" & ".join(_display_cell(row, c, columns, "latex", max_decimals, formats)
+                                for c in shown) + r" \\")
     lines += [r"\bottomrule", r"\end{tabular}"]
     if caption:
         lines.append(r"\end{table}")
