@@ -119,10 +119,10 @@ def correlation_figure(Z, energy_hartree, hartree_fock_hartree, reference_hartre
                        ("hartree_fock_hartree", hartree_fock_hartree))
     fig = _figure()
     ax = fig.add_subplot()
-    ax.plot(z, 1e3 * (e - hf), "o-", label="computed E − E_HF")
+    ax.plot(z, 1e3 * (e - hf), "o-", label=r"computed $E - E_\mathrm{HF}$")
     if reference_hartree is not None:
         (ref,) = _arrays(("reference_hartree", reference_hartree))
-        ax.plot(z, 1e3 * (ref - hf), "s--", label="published E_ref − E_HF")
+        ax.plot(z, 1e3 * (ref - hf), "s--", label=r"published $E_\mathrm{ref} - E_\mathrm{HF}$")
         ax.legend(fontsize="small")
     ax.set_xlabel("nuclear charge Z")
     ax.set_ylabel(r"correlation energy $E - E_\mathrm{HF}$ / m$E_\mathrm{h}$")
