@@ -145,7 +145,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
             b2, m2, e2 = _evaluate(fam, ion, state, size, scaled, options, drop_threshold)
         except Exception:  # a rescaled point that fails is simply not taken
             e2 = None
-        if e2 is not None and e2.values[state.root] <= energy_value:
+        # accept unless it raises the energy beyond rounding: the optimum obeys the virial theorem
+        if e2 is not None and e2.values[state.root] <= energy_value + 1e-14 * abs(energy_value):
             basis, matrices, eig, values = b2, m2, e2, scaled
             energy_value = float(eig.values[state.root])
             kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)

@@ -31,7 +31,7 @@ def summary_text(result) -> str:
              f"{'' if result.size is None else f', size {result.size}'}, {result.n_terms} functions, "
              f"{result.precision})"]
     if result.bound:
-        lines.append(f"energy: {result.energy_hartree_text or repr(result.energy_hartree)} Eh"
+        lines.append(f"energy: {result.energy_hartree_text or format(result.energy_hartree, '.15g')} Eh"
                      + (f" ± {result.error_bar_hartree:.1e}" if result.error_bar_hartree else ""))
         lines.append(energy_line("ionization energy", result.ionization_energy_hartree))
     else:

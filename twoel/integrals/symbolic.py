@@ -8,7 +8,10 @@ r"""SymPy derivations behind the numeric kernels (run by the generator and by th
    from ``d³r1 d³r2 = 8π² r1 r2 r12 dr1 dr2 dr12`` (after the three Euler angles) and the
    perimetric coordinates ``x = r2 + r12 - r1``, ``y = r1 + r12 - r2``, ``z = r1 + r2 - r12``
    (each in ``[0, ∞)``, Jacobian 1/4); see Pekeris, Phys. Rev. 112, 1649 (1958).
-2. :func:`closed_form` differentiates it: ``I(a,b,c) = (-∂α)^(a+1)(-∂β)^(b+1)(-∂γ)^(c+1) I(-1,-1,-1)``.
+2. :func:`closed_form_polynomial` differentiates it,
+   ``I(a,b,c) = (-∂α)^(a+1)(-∂β)^(b+1)(-∂γ)^(c+1) I(-1,-1,-1)``, exactly, as a polynomial in the
+   inverse pair sums (a route independent of the numeric kernels' series product); the test
+   :func:`test_master_integral_derivation` checks it against direct ``sympy.diff`` too.
 3. :func:`kinetic_terms` expands the symmetric kinetic-energy integrand
    ``½(∇1φ·∇1φ' + ∇2φ·∇2φ')`` of two primitives ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` into
    monomials ``r1^p r2^q r12^s`` times polynomial coefficients, using
@@ -34,24 +37,46 @@ def master_integral() -> sp.Expr:
     exponent = (alpha * (y + z) + beta * (x + z) + gamma * (x + y)) / 2
     inner = sp.exp(-sp.expand(exponent))
     value = sp.integrate(inner, (x, 0, sp.oo), (y, 0, sp.oo), (z, 0, sp.oo), conds="none")
-    return sp.simplify(8 * sp.pi**2 * value / 4)
+    return sp.factor(sp.simplify(8 * sp.pi**2 * value / 4))
+
+
+# inverse pair sums u = 1/(α+β), v = 1/(β+γ), w = 1/(γ+α)
+u, v, w = sp.symbols("u v w", positive=True)
 
 
 @lru_cache(maxsize=None)
+def closed_form_polynomial(a: int, b: int, c: int) -> sp.Poly:
+    """``I(a, b, c) / π²`` as a polynomial in ``u = 1/(α+β)``, ``v = 1/(β+γ)``, ``w = 1/(γ+α)``.
+
+    The master integral is ``16 u v w``; by the chain rule ``-∂α = u²∂u + w²∂w``,
+    ``-∂β = u²∂u + v²∂v`` and ``-∂γ = v²∂v + w²∂w`` act on such polynomials exactly.
+    """
+    if min(a, b, c) < -1:
+        raise ValueError("powers must be >= -1")
+    if (a, b, c) == (-1, -1, -1):
+        return sp.Poly(16 * u * v * w, u, v, w)
+    if a > -1:
+        previous, pair = closed_form_polynomial(a - 1, b, c), (u, w)
+    elif b > -1:
+        previous, pair = closed_form_polynomial(a, b - 1, c), (u, v)
+    else:
+        previous, pair = closed_form_polynomial(a, b, c - 1), (v, w)
+    x, y = pair
+    return sp.Poly(x**2, u, v, w) * previous.diff(x) + sp.Poly(y**2, u, v, w) * previous.diff(y)
+
+
 def closed_form(a: int, b: int, c: int) -> sp.Expr:
-    """Closed form of ``I(a, b, c; α, β, γ)`` as a rational function times π²."""
-    expr = master_integral()
-    expr = sp.diff(expr, alpha, a + 1) * (-1) ** (a + 1)
-    expr = sp.diff(expr, beta, b + 1) * (-1) ** (b + 1)
-    expr = sp.diff(expr, gamma, c + 1) * (-1) ** (c + 1)
-    return sp.factor(expr)
+    """Closed form of ``I(a, b, c; α, β, γ)`` as an expression in α, β, γ."""
+    expr = closed_form_polynomial(a, b, c).as_expr()
+    return sp.pi**2 * expr.subs({u: 1 / (alpha + beta), v: 1 / (beta + gamma), w: 1 / (gamma + alpha)})
 
 
 def exact_value(a: int, b: int, c: int, alpha_value, beta_value, gamma_value) -> sp.Rational:
     """Exact value of the integral divided by π², for rational exponents."""
-    expr = closed_form(a, b, c) / sp.pi**2
-    return sp.nsimplify(expr.subs({alpha: sp.Rational(alpha_value), beta: sp.Rational(beta_value),
-                                   gamma: sp.Rational(gamma_value)}))
+    A = sp.Rational(alpha_value) + sp.Rational(beta_value)
+    B = sp.Rational(beta_value) + sp.Rational(gamma_value)
+    C = sp.Rational(gamma_value) + sp.Rational(alpha_value)
+    return sp.Rational(closed_form_polynomial(a, b, c).eval({u: 1 / A, v: 1 / B, w: 1 / C}))
 
 
 # symbols of the bra primitive (index 1) and the ket primitive (index 2)
