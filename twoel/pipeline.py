@@ -202,6 +202,10 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         provenance["numerical_error_hartree"] = refined.numerical_error_hartree
         if hasattr(fam, "provenance"):
             provenance["boxes"] = fam.provenance(ion, state)
+            origin = provenance["boxes"].get("origin")
+            if origin not in (None, "stored") and not do_optimize:
+                notes.append(f"exponent boxes: {origin} (no optimized set stored for {ion.label} "
+                             f"{state.label}); --optimize may improve the energy")
         if bar is not None:
             provenance["error_bar"] = bar
             error_value = bar["error_bar_hartree"]
