@@ -17,14 +17,18 @@ import json
 import os
 import sys
 import tempfile
+from dataclasses import replace
+
+import numpy as np
 
 from .. import __version__
 from ..eigen import solve_generalized
+from ..matrices import CorrelatedBasis
 from ..errors import TwoelError
 from ..optimize import minimize_energy
 from ..system import Ion, State, parse_charge_range
 from . import exponential_boxes as stored
-from .exponential import FAMILY
+from .exponential import box_exponents
 
 
 def tune(ion: Ion, state: State, size: int, start: stored.BoxSet | None = None,
@@ -40,10 +44,8 @@ def tune(ion: Ion, state: State, size: int, start: stored.BoxSet | None = None,
 
     def energy(values):
         boxes = start.with_values(values).boxes
-        exps = FAMILY_exponents(boxes, size, state.exchange_sign)
-        from ..matrices import CorrelatedBasis
-
-        basis = CorrelatedBasis(exps * 0, exps, sign=state.exchange_sign)
+        exps = box_exponents(boxes, size, state.exchange_sign)
+        basis = CorrelatedBasis(np.zeros_like(exps, dtype=int), exps, sign=state.exchange_sign)
         m = basis.matrices()
         eig = solve_generalized(m.hamiltonian(ion.Z), m.overlap)
         if objective == "mixed":
@@ -58,16 +60,8 @@ def tune(ion: Ion, state: State, size: int, start: stored.BoxSet | None = None,
     kind = "float64" if objective == "float64" else "mixed-precision (double-double + 128-bit)"
     method = (f"Nelder-Mead on the log box edges ({record.n_evaluations} evaluations), {kind} "
               f"energy of root {state.root} at N = {size}, start: {start.origin}; twoel {__version__}")
-    from dataclasses import replace
-
     return replace(result, Z=ion.Z, state=state.label, optimized_size=size, energy_hartree=best,
                    method=method, date=datetime.date.today().isoformat(), origin="stored")
-
-
-def FAMILY_exponents(boxes, size, sign):
-    from .exponential import box_exponents
-
-    return box_exponents(boxes, size, sign)
 
 
 def write_sets(path: str, sets: list[stored.BoxSet], description: str) -> None:

@@ -23,7 +23,6 @@ import math
 
 import numpy as np
 
-from ..errors import InputError
 from . import _exponential
 from .doubledouble import DD, two_sum
 
