@@ -68,6 +68,9 @@ def merge(entries) -> None:
     path = ROOT / "data" / xb.DATA_FILE
     data = json.loads(path.read_text()) if path.exists() else {"schema": xb.SCHEMA, "sets": []}
     for entry in entries:
+        old = [x for x in data["sets"] if float(x["Z"]) == float(entry["Z"]) and x["state"] == entry["state"]]
+        if old and "recommended_size" in old[0] and "recommended_size" not in entry:
+            entry = dict(entry, recommended_size=old[0]["recommended_size"])
         data["sets"] = [x for x in data["sets"]
                         if not (float(x["Z"]) == float(entry["Z"]) and x["state"] == entry["state"])] + [entry]
     data["sets"].sort(key=lambda x: (x["Z"], x["state"]))
