@@ -44,7 +44,7 @@ def test_he_2_3S_within_1e_9():
 @pytest.mark.parametrize("label", ["2^3S", "2^1S"])
 def test_he_2S_acceptance(label):
     """Acceptance: S states within 1e-9 Eh with stored parameters in float64, under 30 s
-    (default sizes: 600 functions for 2³S, 1000 for 2¹S)."""
+    (default size: 600 functions)."""
     started = time.perf_counter()
     r = solve_state(2, label)
     assert time.perf_counter() - started < 30

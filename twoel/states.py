@@ -99,9 +99,8 @@ def solve_state(Z, state, size: int | None = None, family=None, require_bound: b
     state : str or State
         Term symbol (``"2^3S"``, ``"2 1P"``, ``"3³P"``, ...).
     size : int, optional
-        Basis size; the default is the stored set's ``recommended_size`` (1000 for He 2¹S,
-        where the float64 overlap drops most added directions) or 600 functions, and ω = 8
-        for the ground state with the ``hylleraas`` fallback.
+        Basis size; the default is the stored set's ``recommended_size`` or 600 functions
+        (``ω = 8`` for the ground state with the ``hylleraas`` fallback).
     family : str or TrialFamily, optional
         Override the family choice.
     require_bound : bool
