@@ -177,3 +177,25 @@ def test_ground_state_acceptance():
     assert v.delta_r1_regularized == pytest.approx(HE_GROUND["delta_r1"], rel=1e-7)
     assert v.delta_r12_regularized == pytest.approx(HE_GROUND["delta_r12"], rel=1e-7)
     assert v.virial_ratio == pytest.approx(2.0, abs=1e-9)
+
+
+@pytest.mark.parametrize("uniform_exponents", [False, True])
+def test_pairwise_matrices_equal_the_core_builder(uniform_exponents):
+    """The pair-wise path (series per pair, or whole tables for few distinct exponents) gives
+    the same S matrices as twoel.matrices.build_matrices."""
+    from twoel.matrices import build_matrices
+    from twoel.operators import hamiltonian_matrices
+
+    rng = np.random.default_rng(5)
+    n = 10
+    powers = rng.integers(0, 3, (n, 3))
+    if uniform_exponents:
+        exponents = np.tile([1.7, 1.1, 0.0], (n, 1))
+    else:
+        exponents = np.column_stack([rng.uniform(1, 3, n), rng.uniform(0.2, 1.5, n), rng.uniform(0, 0.5, n)])
+    for sign in (1, -1):
+        basis = CorrelatedBasis(powers, exponents, sign=sign)
+        core, fast = build_matrices(basis), hamiltonian_matrices(basis)
+        for name in ("overlap", "kinetic", "nuclear", "repulsion"):
+            a, b = getattr(core, name), getattr(fast, name)
+            assert np.max(np.abs(a - b)) <= 1e-13 * np.max(np.abs(a)), name
