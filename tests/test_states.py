@@ -140,3 +140,36 @@ def test_he_n3_states(label):
     ref = lookup(2, label)
     assert r.energy_hartree > ref.value - 1e-12
     assert r.energy_hartree - ref.value < 2e-8
+
+
+def test_excited_box_file_follows_the_shared_schema():
+    """data/exponential_boxes_excited.json uses the schema of every exponential_boxes*.json."""
+    from twoel.basis import excited_boxes as xb
+    from twoel.reference import read_data_text
+
+    data = json.loads(read_data_text(xb.DATA_FILE))
+    assert data["schema"] == "twoel-exponential-boxes/1"
+    seen = set()
+    for entry in data["sets"]:
+        key = (float(entry["Z"]), State.parse(entry["state"]).label)
+        assert key not in seen
+        seen.add(key)
+        assert entry["optimized_size"] > 0 and entry["method"]
+        fractions = [b["fraction"] for b in entry["boxes"]]
+        assert all(0 < f <= 1 for f in fractions) and sum(fractions) == pytest.approx(1, abs=1e-5)
+        for box in entry["boxes"]:
+            for edge in ("alpha", "beta", "gamma"):
+                lo, hi = box[edge]
+                assert 0 <= lo <= hi
+    assert {(2.0, "2^1S"), (2.0, "2^3S"), (2.0, "2^1P"), (2.0, "2^3P"), (3.0, "2^1S"), (3.0, "2^3S")} <= seen
+
+
+def test_quasi_random_sequence_is_exact_integer_arithmetic():
+    """frac(i(i+1)/2 · sqrt(2)) for i = 1..3 (exact closed form, computed with mpmath)."""
+    import mpmath
+
+    from twoel.basis.excited_boxes import quasi_random
+
+    mpmath.mp.dps = 40
+    expected = [float(mpmath.frac(i * (i + 1) // 2 * mpmath.sqrt(2))) for i in (1, 2, 3)]
+    assert quasi_random(3, 2) == pytest.approx(expected, abs=1e-15)
