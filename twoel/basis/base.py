@@ -60,6 +60,8 @@ class TrialFamily(ABC):
     option_names: tuple[str, ...] = ()
     #: angular momenta the family can represent
     supported_L: tuple[int, ...] = (0,)
+    #: if set, the only states (canonical labels) the family describes
+    only_states: tuple[str, ...] | None = None
 
     def resolve_size(self, size: int | None) -> int | None:
         """Validate ``size`` (``None`` selects the default; families without a size ignore it)."""
@@ -88,6 +90,9 @@ class TrialFamily(ABC):
         if state.L not in self.supported_L:
             raise UnsupportedError(f"family {self.name!r} represents only "
                                    f"{'/'.join('SPDF'[L] for L in self.supported_L)} states, "
+                                   f"not {state.label}")
+        if self.only_states is not None and state.label not in self.only_states:
+            raise UnsupportedError(f"family {self.name!r} describes only {', '.join(self.only_states)}, "
                                    f"not {state.label}")
 
     @abstractmethod

@@ -16,14 +16,7 @@ class HydrogenicFamily(TrialFamily):
     name = "hydrogenic"
     summary = "unscreened 1s² product exp(-Z r1 - Z r2); first-order energy -Z² + 5Z/8"
     optimize_by_default = False
-
-    def check_state(self, state: State) -> None:
-        super().check_state(state)
-        if state.label != "1^1S":
-            from ..errors import UnsupportedError
-
-            raise UnsupportedError(f"family 'hydrogenic' describes only the 1s² ground state 1^1S, "
-                                   f"not {state.label}")
+    only_states = ("1^1S",)
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
         return []

@@ -7,7 +7,6 @@ every other nonlinear parameter, so this family also tests the optimizer against
 
 from __future__ import annotations
 
-from ..errors import UnsupportedError
 from ..matrices import CorrelatedBasis
 from ..system import Ion, State
 from .base import Parameter, TrialFamily
@@ -16,12 +15,7 @@ from .base import Parameter, TrialFamily
 class ScreenedFamily(TrialFamily):
     name = "screened"
     summary = "1s² product with variational effective charge (optimum Z - 5/16)"
-
-    def check_state(self, state: State) -> None:
-        super().check_state(state)
-        if state.label != "1^1S":
-            raise UnsupportedError(f"family 'screened' describes only the 1s² ground state 1^1S, "
-                                   f"not {state.label}")
+    only_states = ("1^1S",)
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
         return [Parameter("zeta", max(ion.Z - 0.3, 0.1), 1e-3, 10 * ion.Z + 10)]

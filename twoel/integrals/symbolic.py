@@ -128,3 +128,184 @@ def kinetic_source() -> str:
         lines.append(f"        ({shift!r}, {sp.pycode(coefficient)}),")
     lines += ["    ]", ""]
     return "\n".join(lines)
+
+
+# --- zero-power (purely exponential) primitives -------------------------------------------------
+#: symbols of the inverse sums a = 1/A, b = 1/B, c = 1/C with A = α+β, B = β+γ, C = γ+α
+INV_A, INV_B, INV_C = sp.symbols("a b c", positive=True)
+
+#: single integrals with a closed form in the generated zero-power module (Hamiltonian pieces
+#: and the simple moments ⟨r⟩, ⟨r²⟩ used for expectation values)
+ZERO_POWER_MONOMIALS = ((0, 0, 0), (-1, 0, 0), (0, -1, 0), (0, 0, -1), (1, 0, 0), (0, 1, 0),
+                        (0, 0, 1), (2, 0, 0), (0, 2, 0), (0, 0, 2))
+
+
+@lru_cache(maxsize=None)
+def inverse_sum_form(a: int, b: int, c: int) -> sp.Expr:
+    """``I(a, b, c) / (16π²)`` as a polynomial in ``1/A, 1/B, 1/C`` (integer coefficients).
+
+    Derived from :func:`closed_form` by substituting ``α = (A + C - B)/2``, ``β = (A + B - C)/2``,
+    ``γ = (B + C - A)/2`` and then ``A = 1/a`` etc.; the result is checked to be a polynomial.
+    """
+    A, B, C = sp.symbols("A B C", positive=True)
+    expr = closed_form(a, b, c) / (16 * sp.pi**2)
+    expr = expr.subs({alpha: (A + C - B) / 2, beta: (A + B - C) / 2, gamma: (B + C - A) / 2},
+                     simultaneous=True)
+    expr = sp.expand(sp.simplify(expr.subs({A: 1 / INV_A, B: 1 / INV_B, C: 1 / INV_C},
+                                           simultaneous=True)))
+    poly = sp.Poly(expr, INV_A, INV_B, INV_C)  # raises if not a polynomial
+    if not all(coef.is_integer for coef in poly.coeffs()):
+        raise ArithmeticError(f"I{(a, b, c)} is not an integer polynomial in 1/A, 1/B, 1/C")
+    return poly.as_expr()
+
+
+def zero_power_forms() -> dict[str, sp.Expr]:
+    """The combinations a zero-power basis uses, each divided by 16π².
+
+    ``overlap = I(0,0,0)``, ``nuclear = I(-1,0,0) + I(0,-1,0)``, ``repulsion = I(0,0,-1)``,
+    ``kinetic_1 = I(-1,0,1) + I(1,0,-1) - I(-1,2,-1)`` and
+    ``kinetic_2 = I(0,-1,1) + I(0,1,-1) - I(2,-1,-1)``; with all powers zero the kinetic element
+    of :func:`kinetic_terms` is
+    ``½(α1α2 + β1β2 + 2γ1γ2)·overlap + ¼(α1γ2 + α2γ1)·kinetic_1 + ¼(β1γ2 + β2γ1)·kinetic_2``.
+    """
+    f = inverse_sum_form
+    return {
+        "overlap": f(0, 0, 0),
+        "nuclear": sp.expand(f(-1, 0, 0) + f(0, -1, 0)),
+        "repulsion": f(0, 0, -1),
+        "kinetic_1": sp.expand(f(-1, 0, 1) + f(1, 0, -1) - f(-1, 2, -1)),
+        "kinetic_2": sp.expand(f(0, -1, 1) + f(0, 1, -1) - f(2, -1, -1)),
+    }
+
+
+def _product_code(expr: sp.Expr) -> str:
+    """Python text of ``expr`` using only ``+``, ``-``, ``*`` and integers (no powers, no floats)."""
+    if expr.is_Symbol:
+        return expr.name
+    if expr.is_Integer:
+        return str(int(expr))
+    if expr.is_Pow:
+        base, exponent = expr.args
+        if not (exponent.is_Integer and exponent > 0):
+            raise ArithmeticError(f"unexpected power {expr}")
+        return "*".join([_wrap(base)] * int(exponent))
+    if expr.is_Mul:
+        return "*".join(_wrap(arg) for arg in sorted(expr.args, key=sp.default_sort_key))
+    if expr.is_Add:
+        text = ""
+        for arg in sorted(expr.args, key=sp.default_sort_key):
+            piece = _product_code(arg)
+            if piece.startswith("-"):
+                text += (" - " + piece[1:]) if text else piece
+            else:
+                text += (" + " + piece) if text else piece
+        return text
+    raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover - derivation guard
+
+
+def _wrap(expr: sp.Expr) -> str:
+    text = _product_code(expr)
+    return f"({text})" if expr.is_Add else text
+
+
+def _monomial_name(shift) -> str:
+    return "moment_" + "_".join(("m" + str(-x)) if x < 0 else str(x) for x in shift)
+
+
+def _fixed_code(expr: sp.Expr) -> str:
+    """Like :func:`_product_code` but every product of two fixed-point factors is shifted back
+    by ``P`` bits (``((x*y) >> P)``), so all values stay at the scale ``2^P``."""
+    if expr.is_Symbol:
+        return expr.name
+    if expr.is_Integer:
+        raise ArithmeticError("bare integer in a fixed-point expression")  # pragma: no cover
+    if expr.is_Pow:
+        base, exponent = expr.args
+        return _fixed_product([_fixed_wrap(base)] * int(exponent))
+    if expr.is_Mul:
+        coefficient, rest = expr.as_coeff_Mul()
+        factors = []
+        for arg in sorted(sp.Mul.make_args(rest), key=sp.default_sort_key):
+            if arg.is_Pow:
+                factors.extend([_fixed_wrap(arg.args[0])] * int(arg.args[1]))
+            else:
+                factors.append(_fixed_wrap(arg))
+        text = _fixed_product(factors)
+        if coefficient == 1:
+            return text
+        if coefficient == -1:
+            return f"-{text}"
+        return f"{int(coefficient)}*{text}"
+    if expr.is_Add:
+        text = ""
+        for arg in sorted(expr.args, key=sp.default_sort_key):
+            piece = _fixed_code(arg)
+            if piece.startswith("-"):
+                text += (" - " + piece[1:]) if text else piece
+            else:
+                text += (" + " + piece) if text else piece
+        return text
+    raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover
+
+
+def _fixed_wrap(expr: sp.Expr) -> str:
+    text = _fixed_code(expr)
+    return f"({text})" if expr.is_Add else text
+
+
+def _fixed_product(factors: list[str]) -> str:
+    text = factors[0]
+    for factor in factors[1:]:
+        text = f"(({text}*{factor}) >> P)"
+    return text
+
+
+def zero_power_source() -> str:
+    """Python source of ``twoel/integrals/_exponential.py`` (deterministic)."""
+    forms = zero_power_forms()
+    names = list(forms)
+    replacements, reduced = sp.cse([sp.factor(forms[n]) for n in names],
+                                   symbols=sp.numbered_symbols("t"), optimizations="basic")
+    lines = [
+        '"""Zero-power integrals in 1/A, 1/B, 1/C, generated by twoel.integrals.symbolic.zero_power_source.',
+        "",
+        "Do not edit: regenerate with ``python -m twoel.integrals.generate``.  With",
+        "``A = α+β, B = β+γ, C = γ+α`` of a primitive pair and ``a, b, c = 1/A, 1/B, 1/C``, each value",
+        "is the integral (or combination, see ``symbolic.zero_power_forms``) divided by 16π².  Only",
+        "``+ - *`` and integer constants appear, so the same code serves float64 arrays, double-double",
+        "numbers and exact fixed-point integers.",
+        '"""',
+        "",
+        "#: names of the values returned by :func:`zero_power_integrals`, in order",
+        f"NAMES = {tuple(names)!r}",
+        "#: total degree of each polynomial in (a, b, c)",
+        f"DEGREES = {tuple(int(sp.Poly(forms[n], INV_A, INV_B, INV_C).total_degree()) for n in names)!r}",
+        "",
+        "",
+        "def zero_power_integrals(a, b, c):",
+        '    """Return ``(overlap, nuclear, repulsion, kinetic_1, kinetic_2)`` divided by 16π²."""',
+    ]
+    for symbol, value in replacements:
+        lines.append(f"    {symbol} = {_product_code(value)}")
+    lines.append("    return (")
+    for expr in reduced:
+        lines.append(f"        {_product_code(expr)},")
+    lines += ["    )", ""]
+    lines += ["", "def zero_power_integrals_fixed(a, b, c, P):",
+              '    """As :func:`zero_power_integrals` for integers at scale ``2^P`` (results at ``2^P``)."""']
+    for symbol, value in replacements:
+        lines.append(f"    {symbol} = {_fixed_code(value)}")
+    lines.append("    return (")
+    for expr in reduced:
+        lines.append(f"        {_fixed_code(expr)},")
+    lines += ["    )", ""]
+    for shift in ZERO_POWER_MONOMIALS:
+        expr = sp.factor(inverse_sum_form(*shift))
+        lines += ["", f"def {_monomial_name(shift)}(a, b, c):",
+                  f'    """``I{shift!r} / (16π²)``."""',
+                  f"    return {_product_code(expr)}", ""]
+    lines += ["", "#: single integrals by power shift ``(p, q, s)`` of ``(r1, r2, r12)``", "MONOMIALS = {"]
+    for shift in ZERO_POWER_MONOMIALS:
+        lines.append(f"    {shift!r}: {_monomial_name(shift)},")
+    lines += ["}", ""]
+    return "\n".join(lines)
