@@ -43,9 +43,10 @@ def test_he_2_3S_within_1e_9():
 @pytest.mark.slow
 @pytest.mark.parametrize("label", ["2^3S", "2^1S"])
 def test_he_2S_acceptance(label):
-    """Acceptance: S states within 1e-9 Eh with stored parameters in float64, under 30 s."""
+    """Acceptance: S states within 1e-9 Eh with stored parameters in float64, under 30 s
+    (default size: 600 functions)."""
     started = time.perf_counter()
-    r = solve_state(2, label, size=600)
+    r = solve_state(2, label)
     assert time.perf_counter() - started < 30
     assert r.energy_hartree > HE[label] - 1e-12
     assert r.energy_hartree - HE[label] < 1e-9
@@ -118,3 +119,57 @@ def test_energy_cli_excited_state_label(capsys):
     data = json.loads(capsys.readouterr().out)
     assert data["state"] == "2^3S"
     assert data["energy_hartree"] - HE["2^3S"] < 1e-8
+
+
+@pytest.mark.parametrize("label, tolerance", [("2^3S", 2e-9), ("2^1S", 1e-8)])
+def test_li_plus_2S_against_accad_1971(label, tolerance):
+    """Li⁺ 2³S and 2¹S (300 functions) against Accad, Pekeris & Schiff, Phys. Rev. A 4, 516
+    (1971) (values from memory, uncertainty as tabulated in data/reference_energies.csv)."""
+    ref = lookup(3, label)
+    assert ref is not None and "Accad" in ref.source
+    r = solve_state(3, label, size=300)
+    assert r.energy_hartree > ref.value - ref.uncertainty - 1e-12
+    assert r.energy_hartree - ref.value < tolerance
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("label", ["3^3S", "3^1P", "3^3P"])
+def test_he_n3_states(label):
+    """He n = 3 levels (second roots) within 2e-8 Eh of Drake (2006; from memory)."""
+    r = solve_state(2, label, size=600)
+    ref = lookup(2, label)
+    assert r.energy_hartree > ref.value - 1e-12
+    assert r.energy_hartree - ref.value < 2e-8
+
+
+def test_excited_box_file_follows_the_shared_schema():
+    """data/exponential_boxes_excited.json uses the schema of every exponential_boxes*.json."""
+    from twoel.basis import excited_boxes as xb
+    from twoel.reference import read_data_text
+
+    data = json.loads(read_data_text(xb.DATA_FILE))
+    assert data["schema"] == "twoel-exponential-boxes/1"
+    seen = set()
+    for entry in data["sets"]:
+        key = (float(entry["Z"]), State.parse(entry["state"]).label)
+        assert key not in seen
+        seen.add(key)
+        assert entry["optimized_size"] > 0 and entry["method"]
+        fractions = [b["fraction"] for b in entry["boxes"]]
+        assert all(0 < f <= 1 for f in fractions) and sum(fractions) == pytest.approx(1, abs=1e-5)
+        for box in entry["boxes"]:
+            for edge in ("alpha", "beta", "gamma"):
+                lo, hi = box[edge]
+                assert 0 <= lo <= hi
+    assert {(2.0, "2^1S"), (2.0, "2^3S"), (2.0, "2^1P"), (2.0, "2^3P"), (3.0, "2^1S"), (3.0, "2^3S")} <= seen
+
+
+def test_quasi_random_sequence_is_exact_integer_arithmetic():
+    """frac(i(i+1)/2 · sqrt(2)) for i = 1..3 (exact closed form, computed with mpmath)."""
+    import mpmath
+
+    from twoel.basis.excited_boxes import quasi_random
+
+    mpmath.mp.dps = 40
+    expected = [float(mpmath.frac(i * (i + 1) // 2 * mpmath.sqrt(2))) for i in (1, 2, 3)]
+    assert quasi_random(3, 2) == pytest.approx(expected, abs=1e-15)

@@ -68,6 +68,9 @@ def merge(entries) -> None:
     path = ROOT / "data" / xb.DATA_FILE
     data = json.loads(path.read_text()) if path.exists() else {"schema": xb.SCHEMA, "sets": []}
     for entry in entries:
+        old = [x for x in data["sets"] if float(x["Z"]) == float(entry["Z"]) and x["state"] == entry["state"]]
+        if old and "recommended_size" in old[0] and "recommended_size" not in entry:
+            entry = dict(entry, recommended_size=old[0]["recommended_size"])
         data["sets"] = [x for x in data["sets"]
                         if not (float(x["Z"]) == float(entry["Z"]) and x["state"] == entry["state"])] + [entry]
     data["sets"].sort(key=lambda x: (x["Z"], x["state"]))
@@ -85,12 +88,15 @@ def main(argv=None):
     p.add_argument("--evaluations", type=int, default=300)
     p.add_argument("--write", action="store_true")
     p.add_argument("--from-state", default=None, help="start from the stored boxes of another state")
+    p.add_argument("--start", default=None, help="start from the boxes of a JSON set (a checkpoint)")
     args = p.parse_args(argv)
     if args.merge:
         merge([json.loads(Path(f).read_text()) for f in args.merge])
         return
     ion, state = Ion(args.Z), State.parse(args.state)
-    if args.from_state:
+    if args.start:
+        start, origin = xb.boxes_from_entry(json.loads(Path(args.start).read_text())), args.start
+    elif args.from_state:
         start, origin = xb.default_boxes(ion, State.parse(args.from_state))
     else:
         start, origin = xb.default_boxes(ion, state)

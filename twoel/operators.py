@@ -26,7 +26,7 @@ import numpy as np
 
 from .errors import InputError
 from .integrals import _state_terms as T
-from .integrals.pairs import PairIntegrals, evaluate_terms
+from .integrals.pairs import ExponentTables, PairIntegrals, evaluate_terms
 
 UNIT = [(1.0, (0, 0, 0))]
 
@@ -93,17 +93,19 @@ class PairEngine:
             total_e = be + ke2
             integrals = PairIntegrals(total_e[:, 0], total_e[:, 1], total_e[:, 2])
             base = tuple(bp[:, n] + kp2[:, n] for n in range(3))
-            self._sides.append((exchanged, args, integrals, base))
+            rows, index = np.unique(total_e, axis=0, return_inverse=True)
+            tables = ExponentTables(rows, index.reshape(-1)) if rows.shape[0] <= 16 else None
+            self._sides.append((exchanged, args, integrals, base, tables))
 
     def primitive(self, pieces) -> np.ndarray:
         """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
         out = None
-        for exchanged, args, integrals, base in self._sides:
+        for exchanged, args, integrals, base, tables in self._sides:
             acc = np.zeros(integrals.shape)
             for integrand, weight in pieces:
                 function = _term_function(self.kind, integrand, exchanged)
                 terms = [((0, 0, 0), 1.0)] if function is None else function(*args)
-                acc += evaluate_terms(integrals, _convolve(terms, weight), base)
+                acc += evaluate_terms(integrals, _convolve(terms, weight), base, tables)
             out = acc if out is None else out + self.sign * acc
         return out.reshape(self.shape)
 

@@ -78,6 +78,16 @@ def default_family(state: State):
     return ADAPTER
 
 
+def recommended_size(Z, state: State) -> int:
+    """Basis size for ``state``: the stored set's ``recommended_size`` or :data:`DEFAULT_SIZE`."""
+    from .basis.excited_boxes import stored_entry
+
+    entry = stored_entry(Ion.parse(Z).Z, state) if state.n > 1 or state.L > 0 else None
+    if entry is not None and entry.get("recommended_size"):
+        return int(entry["recommended_size"])
+    return DEFAULT_SIZE.get(state.L, 600)
+
+
 def solve_state(Z, state, size: int | None = None, family=None, require_bound: bool = True,
                 **keywords) -> EnergyResult:
     """Variational energy of ``state`` (any S or P term) with a suitable default basis.
@@ -89,8 +99,8 @@ def solve_state(Z, state, size: int | None = None, family=None, require_bound: b
     state : str or State
         Term symbol (``"2^3S"``, ``"2 1P"``, ``"3³P"``, ...).
     size : int, optional
-        Basis size; the default is 600 functions for the exponential bases, ω = 8 for the
-        ground state with the ``hylleraas`` fallback.
+        Basis size; the default is the stored set's ``recommended_size`` or 600 functions
+        (``ω = 8`` for the ground state with the ``hylleraas`` fallback).
     family : str or TrialFamily, optional
         Override the family choice.
     require_bound : bool
@@ -100,7 +110,7 @@ def solve_state(Z, state, size: int | None = None, family=None, require_bound: b
     family = default_family(state) if family is None else family
     if size is None:
         name = family if isinstance(family, str) else family.name
-        size = 8 if name == "hylleraas" else DEFAULT_SIZE.get(state.L)
+        size = 8 if name == "hylleraas" else recommended_size(Z, state)
     result = solve(Z, state, family=family, size=size, **keywords)
     if require_bound and not result.bound:
         raise NotBoundError(f"{result.ion} {result.state}: {result.message}")

@@ -114,21 +114,30 @@ def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: boo
 
 @lru_cache(maxsize=None)
 def _table() -> dict:
-    path = data_root().joinpath(DATA_FILE)
-    if not path.is_file():
-        return {"schema": SCHEMA, "sets": []}
-    data = json.loads(path.read_text(encoding="utf-8"))
-    if data.get("schema") != SCHEMA:
-        raise InputError(f"{DATA_FILE}: unknown schema {data.get('schema')!r} (expected {SCHEMA})")
-    return data
+    """All stored sets of every ``data/exponential_boxes*.json`` file by ``(Z, state)``.
+
+    As in the ``exponential`` family's loader, the set optimized on the larger basis wins
+    (ties: the first file in name order), so both code paths build the same basis.
+    """
+    root = data_root()
+    names = sorted(p.name for p in root.iterdir()
+                   if p.name.startswith("exponential_boxes") and p.name.endswith(".json"))
+    table: dict = {}
+    for name in names:
+        data = json.loads(root.joinpath(name).read_text(encoding="utf-8"))
+        if data.get("schema") != SCHEMA:
+            raise InputError(f"{name}: unknown schema {data.get('schema')!r} (expected {SCHEMA})")
+        for entry in data.get("sets", []):
+            key = (float(entry["Z"]), State.parse(entry["state"]).label)
+            old = table.get(key)
+            if old is None or (entry.get("optimized_size") or 0) > (old.get("optimized_size") or 0):
+                table[key] = dict(entry, source_file=name)
+    return table
 
 
 def stored_entry(Z: float, state: State) -> dict | None:
     """The stored entry for ``(Z, state)`` or ``None``."""
-    for entry in _table()["sets"]:
-        if float(entry["Z"]) == float(Z) and entry["state"] == state.label:
-            return entry
-    return None
+    return _table().get((float(Z), state.label))
 
 
 def boxes_from_entry(entry: dict) -> list[Box]:

@@ -196,7 +196,44 @@ def k_integral(A, C, p: int, q: int, order: int = QUADRATURE_ORDER) -> np.ndarra
     return out.reshape(A.shape)
 
 
-def evaluate_terms(integrals: PairIntegrals, terms, base_powers) -> np.ndarray:
+class ExponentTables:
+    """Whole integral tables for bases with few distinct exponent sums (Hylleraas-type).
+
+    ``rows`` are the distinct summed exponent triples and ``index[n]`` the row of pair ``n``;
+    tables of :func:`twoel.integrals.kernels.integral_table` (powers >= -1) are built lazily
+    and grown when a larger power is needed; powers of -2 fall back to :class:`PairIntegrals`.
+    """
+
+    def __init__(self, rows: np.ndarray, index: np.ndarray):
+        self.rows, self.index = rows, index
+        self.table = None
+        self.max_power = -1
+        self.singular: dict = {}
+
+    def values(self, a: np.ndarray, b: np.ndarray, c: np.ndarray, index: np.ndarray) -> np.ndarray:
+        from .kernels import integral_table
+
+        out = np.empty(a.shape)
+        regular = (a >= -1) & (b >= -1) & (c >= -1)
+        if np.any(regular):
+            need = int(max(a[regular].max(), b[regular].max(), c[regular].max()))
+            if self.table is None or need > self.max_power:
+                self.max_power = max(need, 2 * self.max_power, 4)
+                self.table = integral_table(self.rows[:, 0], self.rows[:, 1], self.rows[:, 2], self.max_power)
+            out[regular] = self.table[index[regular], a[regular] + 1, b[regular] + 1, c[regular] + 1]
+        if not np.all(regular):
+            keys = np.stack([a, b, c, index], axis=1)[~regular]
+            where = np.nonzero(~regular)[0]
+            for key in np.unique(keys, axis=0):
+                k = tuple(int(x) for x in key)
+                if k not in self.singular:
+                    row = self.rows[k[3]]
+                    self.singular[k] = float(PairIntegrals(row[0], row[1], row[2])(k[0], k[1], k[2]))
+                out[where[np.all(keys == key, axis=1)]] = self.singular[k]
+        return out
+
+
+def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: ExponentTables | None = None) -> np.ndarray:
     """``Σ coefficient · I(base + shift)`` over generated ``((p, q, s), coefficient)`` terms.
 
     Parameters
@@ -222,6 +259,13 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers) -> np.ndarray:
         if uniform:
             a, b, c = int(pa.flat[0]) + p, int(pb.flat[0]) + q, int(pc.flat[0]) + s
             total += coefficient * integrals(a, b, c)
+            continue
+        if tables is not None:
+            sel = np.nonzero(coefficient.reshape(-1))[0]
+            a, b, c = ((x.reshape(-1)[sel] + d) for x, d in ((pa, p), (pb, q), (pc, s)))
+            if np.any(np.minimum(np.minimum(a, b), c) < -2) or np.any(((a == -2) + (b == -2) + (c == -2)) > 1):
+                raise InputError("a generated term needs a divergent integral for this basis")
+            total.reshape(-1)[sel] += coefficient.reshape(-1)[sel] * tables.values(a, b, c, tables.index[sel])
             continue
         keys = np.stack([pa + p, pb + q, pc + s], axis=-1).reshape(-1, 3)
         nonzero = coefficient.reshape(-1) != 0
