@@ -1,0 +1,1 @@
+"""Corrections beyond the nonrelativistic infinite-mass energy (finite mass, α², α³)."""
