@@ -139,7 +139,8 @@ class OperatorValues:
         return asdict(self)
 
 
-def operator_values(wavefunction, Z: float, energy: float | None = None) -> OperatorValues:
+def operator_values(wavefunction, Z: float, energy: float | None = None,
+                    matrices_out: dict | None = None) -> OperatorValues:
     """All expectation values used by the corrections, for one wavefunction.
 
     Parameters
@@ -150,6 +151,9 @@ def operator_values(wavefunction, Z: float, energy: float | None = None) -> Oper
         Nuclear charge of the Hamiltonian that produced ``wavefunction``.
     energy : float, optional
         Its eigenvalue (Eh); by default ``⟨H⟩`` is recomputed.
+    matrices_out : dict, optional
+        If given, receives the basis matrices (``"system"``: SystemMatrices, ``"p1_dot_p2"``)
+        for reuse (e.g. by :func:`twoel.corrections.finite_mass.finite_mass_energy`).
     """
     basis, c = _as_basis(wavefunction)
     m = build_matrices(basis)
@@ -167,7 +171,11 @@ def operator_values(wavefunction, Z: float, energy: float | None = None) -> Oper
         energy = kinetic - 2 * Z * inv_r1 + inv_r12
     specs = {name: spec for name, spec in MULTIPLICATIVE.items() if name not in ("inv_r1", "inv_r12")}
     specs.update(DERIVATIVE)
-    values = {name: ev(matrix) for name, matrix in basis_matrices(basis, specs).items()}
+    mats = basis_matrices(basis, specs)
+    values = {name: ev(matrix) for name, matrix in mats.items()}
+    if matrices_out is not None:
+        matrices_out["system"] = m
+        matrices_out["p1_dot_p2"] = mats["p1_dot_p2"]
     d1 = ev(contract(_delta_pairs(basis, "r1"), basis.contraction))
     d12 = ev(contract(_delta_pairs(basis, "r12"), basis.contraction))
     E = energy
