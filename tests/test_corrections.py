@@ -150,3 +150,11 @@ def test_bethe_log_table_and_hydrogenic_scaling():
     # scaling approximation against the published He 1¹S value (Korobov 2019, from memory)
     assert bethe_logarithm(3, "1^1S").approximate
     assert 2.984128555765 + 2 * math.log(2) == pytest.approx(he.value, abs=1e-3)
+
+
+@pytest.mark.slow
+def test_finite_mass_helium_nakashima_default_basis():
+    # Nakashima & Nakatsuji, J. Chem. Phys. 128, 154107 (2008), mass ratio 7294.2995365 (from memory)
+    basis = preset_basis(2.0, State.parse("1^1S"), "default")
+    fm = finite_mass_energy(basis, 2.0, 7294.2995365)
+    assert fm.energy_exact == pytest.approx(-2.903304557729580, abs=1e-10)

@@ -32,11 +32,38 @@ def add_parser(subparsers) -> None:
                    help="unit of --nuclear-mass: u (default) or electron masses")
     p.add_argument("--quality", choices=("fast", "default"), default="default",
                    help="size of the preset correlated basis")
+    p.add_argument("--family", default=None,
+                   help="solve with this trial family (twoel.solve) instead of the preset basis; "
+                        "it must give a correlated S basis")
+    p.add_argument("--size", type=positive_int, default=None, help="the family's size parameter")
+    p.add_argument("--details", action="store_true", help="also list the α², α³ and mass pieces of the atom")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=run)
 
 
-def summary_text(d: dict) -> str:
+def _details(d: dict) -> list[str]:
+    from ..units import hartree_to
+
+    atom = d["atom"]
+    fm = atom["finite_mass"]
+    lines = ["atom pieces (cm-1, energies of the two-electron state):",
+             f"  reduced-mass shift {hartree_to(fm['reduced_mass_shift'], 'cm-1'):+.6f}, mass polarization "
+             f"first order {hartree_to(fm['mass_polarization_first_order'], 'cm-1'):+.6f}, exact - first order "
+             f"{hartree_to(fm['second_order'], 'cm-1'):+.3e}"]
+    bp = atom["breit_pauli_hartree"]
+    for key in ("mass_velocity", "darwin_one_electron", "darwin_two_electron", "spin_spin_contact",
+                "orbit_orbit", "total", "total_direct"):
+        lines.append(f"  α² {key:<28} {hartree_to(bp[key], 'cm-1'):+.6f}")
+    qed = atom["qed_hartree"]
+    for key in ("one_electron", "two_electron", "araki_sucher", "alpha3", "alpha4_radiative"):
+        lines.append(f"  QED {key:<27} {hartree_to(qed[key], 'cm-1'):+.6f}")
+    ops = atom["operators"]
+    lines.append(f"  ⟨δ(r1)⟩ direct {ops['delta_r1_direct']:.10f} regularized {ops['delta_r1_regularized']:.10f};"
+                 f" ⟨δ(r12)⟩ direct {ops['delta_r12_direct']:.10f} regularized {ops['delta_r12_regularized']:.10f}")
+    return lines
+
+
+def summary_text(d: dict, details: bool = False) -> str:
     from ..units import convert_energy
 
     lines = [f"{d['ion']} {d['state']}  (Z = {d['Z']:g}, isotope {d['isotope']}, "
@@ -57,6 +84,8 @@ def summary_text(d: dict) -> str:
     if d["nist_cm1"] is not None and d["nist_cm1"] != d["reference_cm1"]:
         lines.append(f"{'NIST ASD (via mendeleev)':<50} {d['nist_cm1']:>18.6f}   residual "
                      f"{d['residual_nist_cm1']:+.4f}")
+    if details:
+        lines += _details(d)
     lines.append(f"Bethe logarithm ln(k0/R_inf) = {d['bethe_log']['value']:.9f}  [{d['bethe_log']['source']}]")
     for text in d["cautions"]:
         lines.append(f"caution: {text}")
@@ -69,12 +98,22 @@ def summary_text(d: dict) -> str:
 def run(args: argparse.Namespace) -> int:
     from ..corrections.spectrum import compute_spectrum
 
+    wavefunction = None
+    if args.family is not None:
+        from .. import solve
+
+        solved = solve(args.Z, args.state, family=args.family, size=args.size)
+        if not solved.bound:
+            from ..errors import NotBoundError
+
+            raise NotBoundError(solved.message)
+        wavefunction = solved.wavefunction
     result = compute_spectrum(args.Z, args.state, isotope=args.isotope,
                               nuclear_mass_value=args.nuclear_mass, mass_unit=args.mass_unit,
-                              quality=args.quality)
+                              quality=args.quality, wavefunction=wavefunction)
     d = result.to_dict()
     if args.json:
         print_json(d)
     else:
-        sys.stdout.write(summary_text(d))
+        sys.stdout.write(summary_text(d, args.details))
     return 0
