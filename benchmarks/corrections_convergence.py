@@ -12,7 +12,11 @@ Run: ``python3 benchmarks/corrections_convergence.py [--state 2^3S]``
 from __future__ import annotations
 
 import argparse
+import sys
 import time
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent))  # use this checkout's twoel
 
 import numpy as np
 
