@@ -40,8 +40,8 @@ def test_cli_spectrum_json_contract(capsys):
 
 
 def test_cli_spectrum_errors(capsys):
-    assert main(["spectrum", "--Z", "2", "--state", "2^3P"]) == 2
-    assert "S states only" in capsys.readouterr().err
+    assert main(["spectrum", "--Z", "2", "--state", "2^1P"]) == 2
+    assert "2^3P" in capsys.readouterr().err
     assert main(["spectrum", "--Z", "2.5"]) == 2
     assert main(["spectrum", "--Z", "2", "--isotope", "99"]) == 2
 

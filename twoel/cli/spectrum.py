@@ -22,7 +22,8 @@ _LABELS = {
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
     p.add_argument("--Z", type=charge, required=True, help="nuclear charge or element symbol (an element)")
-    p.add_argument("--state", default="1^1S", help="1^1S (default), 2^1S or 2^3S")
+    p.add_argument("--state", default="1^1S",
+                   help="1^1S (default), 2^1S or 2^3S; 2^3P gives the fine-structure intervals")
     mass = p.add_mutually_exclusive_group()
     mass.add_argument("--isotope", type=positive_int, default=None,
                       help="mass number of the nucleus (default: most abundant isotope)")
@@ -95,9 +96,34 @@ def summary_text(d: dict, details: bool = False) -> str:
     return "\n".join(lines) + "\n"
 
 
+def fine_structure_text(d: dict) -> str:
+    lines = [f"{d['ion']} {d['state']} fine structure (Z = {d['Z']:g}); nonrelativistic energy "
+             f"{d['energy_nonrelativistic_hartree']:.10f} Eh"]
+    for key, label in (("interval_01", "J=0 - J=1"), ("interval_12", "J=1 - J=2")):
+        e = d["fine_structure"][key]
+        text = f"{label}: {e['mhz']:.3f} MHz = {e['cm1']:.6f} cm-1"
+        if e["measured_mhz"] is not None:
+            text += f"   measured {e['measured_mhz']:.3f} MHz ({e['source']}), residual {100 * e['relative_residual']:+.3f} %"
+        lines.append(text)
+    lines += [f"caution: {t}" for t in d["cautions"]] + [f"note: {t}" for t in d["notes"]]
+    return "\n".join(lines) + "\n"
+
+
 def run(args: argparse.Namespace) -> int:
     from ..corrections.spectrum import compute_spectrum
 
+    from ..system import State
+
+    st = State.parse(args.state)
+    if st.L == 1:
+        from ..corrections.spectrum import compute_fine_structure
+
+        d = compute_fine_structure(args.Z, st)
+        if args.json:
+            print_json(d)
+        else:
+            sys.stdout.write(fine_structure_text(d))
+        return 0
     wavefunction = None
     if args.family is not None:
         from .. import solve
