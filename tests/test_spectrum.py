@@ -50,7 +50,7 @@ def test_cli_spectrum_errors(capsys):
     # G. Clausen et al., Phys. Rev. A 111, 012817 (2025): 1 152 842 742.708 2(55)(25) MHz
     ("2^3S", 1152842742.7082, "Clausen 2025"),
     # G. Clausen et al., Phys. Rev. Lett. 127, 093001 (2021): 960 332 040.491(32) MHz
-    ("2^1S", 960332040.491, "Clausen 2021"),
+    pytest.param("2^1S", 960332040.491, "Clausen 2021", marks=pytest.mark.slow),
 ])
 def test_helium_excited_ionization_energies(state, measured_mhz, source):
     d = compute_spectrum(2, state, quality="fast").to_dict()

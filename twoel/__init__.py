@@ -16,9 +16,11 @@ from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDepend
 from .pipeline import solve
 from .results import EnergyResult
 from .system import Ion, State
+from .corrections.spectrum import compute_fine_structure, compute_spectrum
 
 __all__ = [
     "__version__", "solve", "EnergyResult", "Ion", "State", "family_names", "get_family",
     "TwoelError", "InputError", "UnsupportedError", "LinearDependenceError", "ConvergenceError",
     "NotBoundError", "ResourceError", "TwoelWarning", "AccuracyWarning",
+    "compute_spectrum", "compute_fine_structure",
 ]
