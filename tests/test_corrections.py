@@ -116,6 +116,8 @@ def test_nuclear_masses_against_codata():
     # atomic mass minus electrons (binding neglected: ~2e-8 relative for He)
     assert nuclear_mass(2).nuclear_mass_me == pytest.approx(alpha, rel=1e-7)
     assert nuclear_mass(1, 2).nuclear_mass_me == pytest.approx(deuteron, rel=1e-7)
+    helion = sc.physical_constants["helion-electron mass ratio"][0]
+    assert nuclear_mass(2, 3).nuclear_mass_me == pytest.approx(helion, rel=1e-7)
     assert nuclear_mass(1).nuclear_mass_me == pytest.approx(proton, rel=1e-7)
     me = constants.ELECTRON_MASS_U.value
     assert nuclear_mass(2, mass=4.0015, mass_unit="u").nuclear_mass_me == pytest.approx(4.0015 / me)
