@@ -21,6 +21,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .errors import InputError, ResourceError
+from .integrals import zero_power
 from .integrals._kinetic import kinetic_terms
 from .integrals.kernels import MAX_POWER, integral_table
 
@@ -149,7 +150,20 @@ def primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, lis
     Returns
     -------
     dict of ndarray, each of shape (P, P)
+
+    Notes
+    -----
+    Bases whose powers are all zero (exponentially correlated, :mod:`twoel.basis.exponential`)
+    take the closed-form fast path :mod:`twoel.integrals.zero_power` when every operator has a
+    generated form there; everything else uses the generic integral tables.
     """
+    if not np.any(basis.powers) and zero_power.supports(operators):
+        return zero_power.primitive_matrices(basis.exponents, basis.sign, operators)
+    return generic_primitive_operator_matrices(basis, operators)
+
+
+def generic_primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, list]) -> dict[str, np.ndarray]:
+    """The table-based path of :func:`primitive_operator_matrices` (any powers)."""
     P = basis.n_primitives
     result = {name: np.zeros((P, P)) for name in operators}
     bra_p, bra_e = basis.powers, basis.exponents

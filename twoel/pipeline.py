@@ -20,14 +20,18 @@ from ._version import __version__
 from .basis import get_family
 from .basis.base import TrialFamily
 from .eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
-from .errors import AccuracyWarning, InputError, UnsupportedError
+from .errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
+from .matrices import CorrelatedBasis
 from .optimize import minimize_energy
+from .precision import check_precision, extended_refine, mixed_refine, truncate_text
 from .reference import lookup
 from .results import EnergyResult, Wavefunction
 from .system import Ion, State
 
 #: condition number of the scaled overlap above which a near-dependence warning is attached
 ILL_CONDITIONED = 1e15
+#: largest exponential basis solved in extended precision (arb LU is O(N³) at ~200 bits)
+MAX_EXTENDED_SIZE = 2500
 
 
 def _evaluate(family: TrialFamily, ion: Ion, state: State, size, values: dict, options: dict,
@@ -54,7 +58,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
           size: int | None = None, *, parameters: dict | None = None, optimize: bool | None = None,
           options: dict | None = None, precision: str = "float64",
           drop_threshold: float = DEFAULT_DROP_THRESHOLD,
-          progress: Callable[[int, float], None] | None = None) -> EnergyResult:
+          progress: Callable[[int, float], None] | None = None, digits: int | None = None,
+          error_bar: bool | None = None) -> EnergyResult:
     """Variational energy of one state of a two-electron ion.
 
     Parameters
@@ -75,11 +80,20 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     options : dict, optional
         Family-specific options (e.g. ``{"exponents": 2}`` for ``hylleraas``).
     precision : str
-        ``"float64"``.
+        ``"float64"`` (default) or ``"extended"`` (zero-power exponential bases only: exact
+        fixed-point matrices and arb inverse iteration, :mod:`twoel.precision`).  For the
+        exponential family ``"float64"`` includes a cheap mixed-precision refinement
+        (double-double matrices, one 128-bit inverse-iteration step).
     drop_threshold : float
         Relative overlap eigenvalue below which basis directions are dropped.
     progress : callable, optional
         ``progress(n_evaluations, best_energy)`` during optimization.
+    digits : int, optional
+        Significant digits aimed at by ``precision="extended"`` (default 20).
+    error_bar : bool, optional
+        Estimate the basis-truncation error from two smaller nested bases (``N/2``, ``N/√2``;
+        :mod:`twoel.convergence`) and fill ``error_bar_hartree``.  Default: on for the
+        exponential family, off otherwise.
 
     Returns
     -------
@@ -89,9 +103,11 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     ion = Z if isinstance(Z, Ion) else Ion.parse(Z)
     state = State.parse(state)
     fam = get_family(family)
-    if precision != "float64":
-        raise InputError(f"unknown precision {precision!r}; available: float64")
+    digit_target = check_precision(precision, digits)
     size = fam.resolve_size(size)
+    if precision == "extended" and size is not None and size > MAX_EXTENDED_SIZE:
+        raise ResourceError(f"extended precision is limited to {MAX_EXTENDED_SIZE} terms "
+                            f"(got {size}); use a smaller size or the default precision")
     options = fam.check_options(options)
     fam.check_state(state)
     params = fam.parameters(ion, state, size, options)
@@ -109,13 +125,16 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     values = {p.name: p.initial for p in params}
     record = None
     if do_optimize and params:
+        # families with many terms (exponential) tune their parameters on a smaller basis
+        tune_size = fam.optimization_size(ion, state, size) if hasattr(fam, "optimization_size") else size
+
         def energy(v):
-            _b, _m, eig = _evaluate(fam, ion, state, size, v, options, drop_threshold)
+            _b, _m, eig = _evaluate(fam, ion, state, tune_size, v, options, drop_threshold)
             return eig.values[state.root]
 
         values, _best, opt = minimize_energy(energy, params, progress=progress)
         record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
-                  "message": opt.message, "initial": opt.initial}
+                  "message": opt.message, "initial": opt.initial, "size": tune_size}
     basis, matrices, eig = _evaluate(fam, ion, state, size, values, options, drop_threshold)
     energy_value = float(eig.values[state.root])
     kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
@@ -126,20 +145,35 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
             b2, m2, e2 = _evaluate(fam, ion, state, size, scaled, options, drop_threshold)
         except Exception:  # a rescaled point that fails is simply not taken
             e2 = None
-        if e2 is not None and e2.values[state.root] <= energy_value:
+        # accept unless it raises the energy beyond rounding: the optimum obeys the virial theorem
+        if e2 is not None and e2.values[state.root] <= energy_value + 1e-14 * abs(energy_value):
             basis, matrices, eig, values = b2, m2, e2, scaled
             energy_value = float(eig.values[state.root])
             kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
             record["virial_rescale"] = scale
+    refined = None
+    high = _zero_power(basis) and getattr(fam, "name", "") == "exponential"
+    if precision == "extended" and not high:
+        raise UnsupportedError("precision='extended' needs the exponential family (S states)")
+    bar = None
+    if high:
+        refined = _refine(basis, ion, state, eig, precision, digit_target)
+        energy_value = refined.energy_hartree
+        if error_bar is None or error_bar:
+            bar = _error_bar(fam, ion, state, size, values, options, drop_threshold, precision,
+                             digit_target, refined)
     warn_list, notes = [], []
     if ion.note:
         notes.append(ion.note)
-    if eig.condition_number > ILL_CONDITIONED:
+    if eig.condition_number > ILL_CONDITIONED and refined is None:
         text = (f"overlap condition number {eig.condition_number:.1e} (diagonally scaled): the basis "
                 "is nearly linearly dependent and the last float64 digits of the energy may be noise")
         warn_list.append(text)
         warnings.warn(text, AccuracyWarning, stacklevel=2)
-    if eig.n_dropped:
+    if refined is not None:
+        notes.append(f"energy refined beyond float64: {refined.method} ({refined.working_bits} bits); "
+                     f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh")
+    if eig.n_dropped and refined is None:
         notes.append(f"{eig.n_dropped} near-dependent basis directions dropped "
                      f"(canonical orthogonalization, threshold {eig.drop_threshold:g})")
     if record is not None and not record["success"]:
@@ -160,6 +194,24 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         "basis": basis.describe(), "constants": constants.CODATA_EDITION,
         "numpy": np.__version__,
     }
+    energy_text = None
+    if refined is not None:
+        provenance["refinement"] = refined.to_dict()
+        provenance["energy_full_text"] = refined.text
+        provenance["numerical_error_hartree"] = refined.numerical_error_hartree
+        if hasattr(fam, "provenance"):
+            provenance["boxes"] = fam.provenance(ion, state)
+        if bar is not None:
+            provenance["error_bar"] = bar
+            error_value = bar["error_bar_hartree"]
+            energy_text = truncate_text(refined.text, error_value)
+        else:
+            error_value = None
+            energy_text = truncate_text(refined.text, refined.numerical_error_hartree)
+        if bar is not None and not bar["reliable"]:
+            warn_list.append(f"error bar may be unreliable: {bar['note']}")
+    else:
+        error_value = None
     return EnergyResult(
         Z=ion.Z, ion=ion.label, state=state.label, family=fam.name, size=size, n_terms=basis.size,
         energy_hartree=energy_value, bound=bool(bound), threshold_hartree=ion.threshold_hartree,
@@ -169,9 +221,49 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         condition_number=eig.condition_number, n_dropped=eig.n_dropped, precision=precision,
         status=status, message=message, reference=reference, optimizer=record,
         warnings=tuple(warn_list), notes=tuple(notes),
+        energy_hartree_text=energy_text, error_bar_hartree=error_value,
         elapsed_seconds=time.perf_counter() - started, provenance=provenance,
         wavefunction=Wavefunction(basis, eig.vectors[:, state.root].copy()),
     )
+
+
+def _zero_power(basis) -> bool:
+    return isinstance(basis, CorrelatedBasis) and basis.contraction is None and not np.any(basis.powers)
+
+
+def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, digits):
+    """Mixed (default) or extended-precision energy of a zero-power basis."""
+    mixed = mixed_refine(basis.exponents, basis.sign, ion.Z, eig, state.root)
+    if precision != "extended":
+        return mixed
+    n = basis.size
+    condition_digits = (np.log10(eig.condition_number) if eig.n_dropped == 0
+                        and np.isfinite(eig.condition_number) else 16.0 + 8.0 * np.log10(max(n, 100) / 100.0))
+    upper = eig.values[state.root + 1] if state.root + 1 < len(eig.values) else np.inf
+    return extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
+                           digits, float(condition_digits),
+                           gap=float(min(upper - mixed.energy_hartree, 1.0)))
+
+
+def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision, digits, refined) -> dict:
+    """Truncation error from the nested smaller bases ``N/2`` and ``N/√2`` (see twoel.convergence)."""
+    from .convergence import error_bar_sizes, estimate_tail
+
+    texts, numerical = [], [refined.numerical_error_hartree]
+    sizes = error_bar_sizes(size)
+    for n in sizes:
+        # the smaller bases only feed differences: the mixed refinement (~1e-17 Eh) suffices
+        b, _m, e = _evaluate(fam, ion, state, n, values, options, drop_threshold)
+        aux = _refine(b, ion, state, e, "float64", None)
+        texts.append(aux.text)
+        numerical.append(aux.numerical_error_hartree)
+    texts.append(refined.text)
+    energies = [float(t) for t in texts]
+    estimate = estimate_tail(energies, max(numerical), texts)
+    return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
+            "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
+            "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,
+            "note": estimate.note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
 
 
 def _jsonable(options: dict) -> dict:

@@ -145,3 +145,48 @@ def energy_line(label: str, value_hartree: float | None, units=("hartree", "ev",
         return f"{label}: —"
     parts = [f"{hartree_to(value_hartree, u):.12g} {UNIT_LABELS[u]}" for u in units]
     return f"{label}: " + " = ".join(parts)
+
+
+def size_list(text: str) -> tuple[int, ...]:
+    """Parse basis sizes ``"1,2,4:14:2"`` (ranges inclusive) into increasing integers (no evaluation)."""
+    sizes: list[int] = []
+    for part in text.split(","):
+        part = part.strip()
+        if not part:
+            continue
+        fields = part.split(":")
+        if not all(f.strip().isdigit() for f in fields) or len(fields) > 3:
+            raise argparse.ArgumentTypeError(f"sizes must be integers or ranges 'first:last[:step]', "
+                                             f"got {part!r}")
+        numbers = [int(f) for f in fields]
+        if len(numbers) == 1:
+            sizes.append(numbers[0])
+        else:
+            step = numbers[2] if len(numbers) == 3 else 1
+            if step < 1 or numbers[1] < numbers[0]:
+                raise argparse.ArgumentTypeError(f"range {part!r} must increase with a step >= 1")
+            sizes.extend(range(numbers[0], numbers[1] + 1, step))
+    if not sizes:
+        raise argparse.ArgumentTypeError("the list of sizes is empty")
+    return tuple(sizes)
+
+
+def write_output(path: str, text: str, overwrite: bool = False) -> None:
+    """Write ``text`` to ``path`` atomically; refuse to replace an existing file unless asked."""
+    import os
+    import tempfile
+
+    if os.path.exists(path) and not overwrite:
+        raise InputError(f"output file {path!r} exists; pass --force to replace it")
+    folder = os.path.dirname(os.path.abspath(path))
+    if not os.path.isdir(folder):
+        raise InputError(f"output folder {folder!r} does not exist")
+    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".twoel-", suffix=".tmp")
+    try:
+        with os.fdopen(handle, "w", encoding="utf-8") as stream:
+            stream.write(text)
+        os.replace(temporary, path)
+    except BaseException:
+        if os.path.exists(temporary):
+            os.unlink(temporary)
+        raise

@@ -16,6 +16,11 @@ def add_parser(subparsers) -> None:
     p.add_argument("--Z", type=charge, required=True,
                    help="nuclear charge: a number (any Z > 0) or element symbol/name")
     add_basis_arguments(p)
+    p.add_argument("--precision", choices=("float64", "extended"), default="float64",
+                   help="float64 (default; the exponential family adds a cheap mixed-precision "
+                        "refinement) or extended (exponential family: arbitrary precision)")
+    p.add_argument("--digits", type=int, default=None,
+                   help="with --precision extended: significant digits aimed at (default 20)")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.add_argument("--quiet", action="store_true", help="no progress on stderr")
     p.set_defaults(run=run)
@@ -26,7 +31,7 @@ def summary_text(result) -> str:
              f"{'' if result.size is None else f', size {result.size}'}, {result.n_terms} functions, "
              f"{result.precision})"]
     if result.bound:
-        lines.append(f"energy: {result.energy_hartree_text or repr(result.energy_hartree)} Eh"
+        lines.append(f"energy: {result.energy_hartree_text or format(result.energy_hartree, '.15g')} Eh"
                      + (f" ± {result.error_bar_hartree:.1e}" if result.error_bar_hartree else ""))
         lines.append(energy_line("ionization energy", result.ionization_energy_hartree))
     else:
@@ -56,7 +61,8 @@ def run(args: argparse.Namespace) -> int:
     from .progress import optimizer_progress
 
     with optimizer_progress(enabled=not args.quiet and not args.json) as progress:
-        result = solve(args.Z, progress=progress, **basis_keywords(args))
+        result = solve(args.Z, progress=progress, precision=args.precision, digits=args.digits,
+                       **basis_keywords(args))
     if args.json:
         print_json(result.to_dict())
     else:

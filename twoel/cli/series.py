@@ -5,10 +5,15 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import add_basis_arguments, basis_keywords
+from .common import add_basis_arguments, basis_keywords, positive_int
 
 NAME = "series"
 HELP = "energies, references and ionization energies over a range of Z, as a table"
+
+#: columns shown by default in the human formats (CSV and JSON carry every column)
+DEFAULT_COLUMNS = ("Z", "ion", "state", "n_terms", "energy_hartree", "reference_hartree",
+                   "reference_uncertainty_hartree", "reference_key", "difference_hartree",
+                   "ionization_energy_ev", "ionization_energy_cm1")
 
 
 def add_parser(subparsers) -> None:
@@ -17,40 +22,35 @@ def add_parser(subparsers) -> None:
     add_basis_arguments(p)
     p.add_argument("--format", choices=("markdown", "csv", "latex", "json"), default="markdown",
                    help="table format (default markdown)")
+    p.add_argument("--columns", default=None,
+                   help="comma-separated columns to show, or 'all' (default: a compact set for "
+                        "markdown/latex, every column for csv/json)")
+    p.add_argument("--jobs", type=positive_int, default=1,
+                   help="worker processes for the sweep (default 1 = serial; 0 = one per core)")
     p.add_argument("--quiet", action="store_true", help="no progress on stderr")
     p.set_defaults(run=run)
 
 
-def series_frame(charges, keywords: dict, progress: bool = False):
-    """Solve for every charge and collect one row per ion (a :class:`pandas.DataFrame`)."""
-    import pandas as pd
+def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | None = 1):
+    """Solve for every charge and collect one row per ion (see :func:`twoel.sweep.series_frame`)."""
+    from ..sweep import series_frame as build
 
-    from .. import solve
-    from .progress import iterate
-
-    rows = []
-    for Z in iterate(charges, "ions", enabled=progress):
-        r = solve(Z, **keywords)
-        ref = r.reference
-        rows.append({
-            "Z": r.Z, "ion": r.ion, "state": r.state, "family": r.family, "n_terms": r.n_terms,
-            "energy_hartree": r.energy_hartree, "bound": r.bound,
-            "reference_hartree": None if ref is None else ref.value,
-            "difference_hartree": r.difference_hartree, "agreeing_digits": r.agreeing_digits,
-            "ionization_energy_hartree": r.ionization_energy_hartree,
-            "ionization_energy_ev": r.ionization_energy("ev"),
-            "ionization_energy_cm1": r.ionization_energy("cm-1"),
-            "reference_source": None if ref is None else ref.source,
-        })
-    return pd.DataFrame(rows)
+    return build(charges, keywords, progress=progress, jobs=jobs)
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..report.tables import render
+    from ..report.tables import render, select_columns
     from ..system import parse_charge_range
 
     charges = parse_charge_range(args.Z)
-    frame = series_frame(charges, basis_keywords(args), progress=not args.quiet)
+    keywords = basis_keywords(args)
+    frame = series_frame(charges, keywords, progress=not args.quiet, jobs=args.jobs)
+    if args.columns is not None:
+        columns = select_columns(frame, args.columns)
+    elif args.format in ("markdown", "latex"):
+        columns = [c for c in DEFAULT_COLUMNS if c in frame.columns]
+    else:
+        columns = None
     caption = f"{args.state} energies (Eh), family {args.family}, size {args.size}"
-    sys.stdout.write(render(frame, args.format, caption=caption))
+    sys.stdout.write(render(frame, args.format, caption=caption, columns=columns))
     return 0

@@ -1,1 +1,2 @@
-"""Corrections beyond the nonrelativistic infinite-mass energy (finite mass, α², α³)."""
+"""Corrections that connect nonrelativistic energies with measured spectra (finite nuclear
+mass, Breit–Pauli and QED terms).  Modules are added one per correction."""

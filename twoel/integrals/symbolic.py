@@ -8,7 +8,10 @@ r"""SymPy derivations behind the numeric kernels (run by the generator and by th
    from ``d³r1 d³r2 = 8π² r1 r2 r12 dr1 dr2 dr12`` (after the three Euler angles) and the
    perimetric coordinates ``x = r2 + r12 - r1``, ``y = r1 + r12 - r2``, ``z = r1 + r2 - r12``
    (each in ``[0, ∞)``, Jacobian 1/4); see Pekeris, Phys. Rev. 112, 1649 (1958).
-2. :func:`closed_form` differentiates it: ``I(a,b,c) = (-∂α)^(a+1)(-∂β)^(b+1)(-∂γ)^(c+1) I(-1,-1,-1)``.
+2. :func:`closed_form_polynomial` differentiates it,
+   ``I(a,b,c) = (-∂α)^(a+1)(-∂β)^(b+1)(-∂γ)^(c+1) I(-1,-1,-1)``, exactly, as a polynomial in the
+   inverse pair sums (a route independent of the numeric kernels' series product); the test
+   :func:`test_master_integral_derivation` checks it against direct ``sympy.diff`` too.
 3. :func:`kinetic_terms` expands the symmetric kinetic-energy integrand
    ``½(∇1φ·∇1φ' + ∇2φ·∇2φ')`` of two primitives ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` into
    monomials ``r1^p r2^q r12^s`` times polynomial coefficients, using
@@ -34,24 +37,46 @@ def master_integral() -> sp.Expr:
     exponent = (alpha * (y + z) + beta * (x + z) + gamma * (x + y)) / 2
     inner = sp.exp(-sp.expand(exponent))
     value = sp.integrate(inner, (x, 0, sp.oo), (y, 0, sp.oo), (z, 0, sp.oo), conds="none")
-    return sp.simplify(8 * sp.pi**2 * value / 4)
+    return sp.factor(sp.simplify(8 * sp.pi**2 * value / 4))
+
+
+# inverse pair sums u = 1/(α+β), v = 1/(β+γ), w = 1/(γ+α)
+u, v, w = sp.symbols("u v w", positive=True)
 
 
 @lru_cache(maxsize=None)
+def closed_form_polynomial(a: int, b: int, c: int) -> sp.Poly:
+    """``I(a, b, c) / π²`` as a polynomial in ``u = 1/(α+β)``, ``v = 1/(β+γ)``, ``w = 1/(γ+α)``.
+
+    The master integral is ``16 u v w``; by the chain rule ``-∂α = u²∂u + w²∂w``,
+    ``-∂β = u²∂u + v²∂v`` and ``-∂γ = v²∂v + w²∂w`` act on such polynomials exactly.
+    """
+    if min(a, b, c) < -1:
+        raise ValueError("powers must be >= -1")
+    if (a, b, c) == (-1, -1, -1):
+        return sp.Poly(16 * u * v * w, u, v, w)
+    if a > -1:
+        previous, pair = closed_form_polynomial(a - 1, b, c), (u, w)
+    elif b > -1:
+        previous, pair = closed_form_polynomial(a, b - 1, c), (u, v)
+    else:
+        previous, pair = closed_form_polynomial(a, b, c - 1), (v, w)
+    x, y = pair
+    return sp.Poly(x**2, u, v, w) * previous.diff(x) + sp.Poly(y**2, u, v, w) * previous.diff(y)
+
+
 def closed_form(a: int, b: int, c: int) -> sp.Expr:
-    """Closed form of ``I(a, b, c; α, β, γ)`` as a rational function times π²."""
-    expr = master_integral()
-    expr = sp.diff(expr, alpha, a + 1) * (-1) ** (a + 1)
-    expr = sp.diff(expr, beta, b + 1) * (-1) ** (b + 1)
-    expr = sp.diff(expr, gamma, c + 1) * (-1) ** (c + 1)
-    return sp.factor(expr)
+    """Closed form of ``I(a, b, c; α, β, γ)`` as an expression in α, β, γ."""
+    expr = closed_form_polynomial(a, b, c).as_expr()
+    return sp.pi**2 * expr.subs({u: 1 / (alpha + beta), v: 1 / (beta + gamma), w: 1 / (gamma + alpha)})
 
 
 def exact_value(a: int, b: int, c: int, alpha_value, beta_value, gamma_value) -> sp.Rational:
     """Exact value of the integral divided by π², for rational exponents."""
-    expr = closed_form(a, b, c) / sp.pi**2
-    return sp.nsimplify(expr.subs({alpha: sp.Rational(alpha_value), beta: sp.Rational(beta_value),
-                                   gamma: sp.Rational(gamma_value)}))
+    A = sp.Rational(alpha_value) + sp.Rational(beta_value)
+    B = sp.Rational(beta_value) + sp.Rational(gamma_value)
+    C = sp.Rational(gamma_value) + sp.Rational(alpha_value)
+    return sp.Rational(closed_form_polynomial(a, b, c).eval({u: 1 / A, v: 1 / B, w: 1 / C}))
 
 
 # symbols of the bra primitive (index 1) and the ket primitive (index 2)
@@ -102,4 +127,185 @@ def kinetic_source() -> str:
     for shift, coefficient in kinetic_terms():
         lines.append(f"        ({shift!r}, {sp.pycode(coefficient)}),")
     lines += ["    ]", ""]
+    return "\n".join(lines)
+
+
+# --- zero-power (purely exponential) primitives -------------------------------------------------
+#: symbols of the inverse sums a = 1/A, b = 1/B, c = 1/C with A = α+β, B = β+γ, C = γ+α
+INV_A, INV_B, INV_C = sp.symbols("a b c", positive=True)
+
+#: single integrals with a closed form in the generated zero-power module (Hamiltonian pieces
+#: and the simple moments ⟨r⟩, ⟨r²⟩ used for expectation values)
+ZERO_POWER_MONOMIALS = ((0, 0, 0), (-1, 0, 0), (0, -1, 0), (0, 0, -1), (1, 0, 0), (0, 1, 0),
+                        (0, 0, 1), (2, 0, 0), (0, 2, 0), (0, 0, 2))
+
+
+@lru_cache(maxsize=None)
+def inverse_sum_form(a: int, b: int, c: int) -> sp.Expr:
+    """``I(a, b, c) / (16π²)`` as a polynomial in ``1/A, 1/B, 1/C`` (integer coefficients).
+
+    Derived from :func:`closed_form` by substituting ``α = (A + C - B)/2``, ``β = (A + B - C)/2``,
+    ``γ = (B + C - A)/2`` and then ``A = 1/a`` etc.; the result is checked to be a polynomial.
+    """
+    A, B, C = sp.symbols("A B C", positive=True)
+    expr = closed_form(a, b, c) / (16 * sp.pi**2)
+    expr = expr.subs({alpha: (A + C - B) / 2, beta: (A + B - C) / 2, gamma: (B + C - A) / 2},
+                     simultaneous=True)
+    expr = sp.expand(sp.simplify(expr.subs({A: 1 / INV_A, B: 1 / INV_B, C: 1 / INV_C},
+                                           simultaneous=True)))
+    poly = sp.Poly(expr, INV_A, INV_B, INV_C)  # raises if not a polynomial
+    if not all(coef.is_integer for coef in poly.coeffs()):
+        raise ArithmeticError(f"I{(a, b, c)} is not an integer polynomial in 1/A, 1/B, 1/C")
+    return poly.as_expr()
+
+
+def zero_power_forms() -> dict[str, sp.Expr]:
+    """The combinations a zero-power basis uses, each divided by 16π².
+
+    ``overlap = I(0,0,0)``, ``nuclear = I(-1,0,0) + I(0,-1,0)``, ``repulsion = I(0,0,-1)``,
+    ``kinetic_1 = I(-1,0,1) + I(1,0,-1) - I(-1,2,-1)`` and
+    ``kinetic_2 = I(0,-1,1) + I(0,1,-1) - I(2,-1,-1)``; with all powers zero the kinetic element
+    of :func:`kinetic_terms` is
+    ``½(α1α2 + β1β2 + 2γ1γ2)·overlap + ¼(α1γ2 + α2γ1)·kinetic_1 + ¼(β1γ2 + β2γ1)·kinetic_2``.
+    """
+    f = inverse_sum_form
+    return {
+        "overlap": f(0, 0, 0),
+        "nuclear": sp.expand(f(-1, 0, 0) + f(0, -1, 0)),
+        "repulsion": f(0, 0, -1),
+        "kinetic_1": sp.expand(f(-1, 0, 1) + f(1, 0, -1) - f(-1, 2, -1)),
+        "kinetic_2": sp.expand(f(0, -1, 1) + f(0, 1, -1) - f(2, -1, -1)),
+    }
+
+
+def _product_code(expr: sp.Expr) -> str:
+    """Python text of ``expr`` using only ``+``, ``-``, ``*`` and integers (no powers, no floats)."""
+    if expr.is_Symbol:
+        return expr.name
+    if expr.is_Integer:
+        return str(int(expr))
+    if expr.is_Pow:
+        base, exponent = expr.args
+        if not (exponent.is_Integer and exponent > 0):
+            raise ArithmeticError(f"unexpected power {expr}")
+        return "*".join([_wrap(base)] * int(exponent))
+    if expr.is_Mul:
+        return "*".join(_wrap(arg) for arg in sorted(expr.args, key=sp.default_sort_key))
+    if expr.is_Add:
+        text = ""
+        for arg in sorted(expr.args, key=sp.default_sort_key):
+            piece = _product_code(arg)
+            if piece.startswith("-"):
+                text += (" - " + piece[1:]) if text else piece
+            else:
+                text += (" + " + piece) if text else piece
+        return text
+    raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover - derivation guard
+
+
+def _wrap(expr: sp.Expr) -> str:
+    text = _product_code(expr)
+    return f"({text})" if expr.is_Add else text
+
+
+def _monomial_name(shift) -> str:
+    return "moment_" + "_".join(("m" + str(-x)) if x < 0 else str(x) for x in shift)
+
+
+def _fixed_code(expr: sp.Expr) -> str:
+    """Like :func:`_product_code` but every product of two fixed-point factors is shifted back
+    by ``P`` bits (``((x*y) >> P)``), so all values stay at the scale ``2^P``."""
+    if expr.is_Symbol:
+        return expr.name
+    if expr.is_Integer:
+        raise ArithmeticError("bare integer in a fixed-point expression")  # pragma: no cover
+    if expr.is_Pow:
+        base, exponent = expr.args
+        return _fixed_product([_fixed_wrap(base)] * int(exponent))
+    if expr.is_Mul:
+        coefficient, rest = expr.as_coeff_Mul()
+        factors = []
+        for arg in sorted(sp.Mul.make_args(rest), key=sp.default_sort_key):
+            if arg.is_Pow:
+                factors.extend([_fixed_wrap(arg.args[0])] * int(arg.args[1]))
+            else:
+                factors.append(_fixed_wrap(arg))
+        text = _fixed_product(factors)
+        if coefficient == 1:
+            return text
+        if coefficient == -1:
+            return f"-{text}"
+        return f"{int(coefficient)}*{text}"
+    if expr.is_Add:
+        text = ""
+        for arg in sorted(expr.args, key=sp.default_sort_key):
+            piece = _fixed_code(arg)
+            if piece.startswith("-"):
+                text += (" - " + piece[1:]) if text else piece
+            else:
+                text += (" + " + piece) if text else piece
+        return text
+    raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover
+
+
+def _fixed_wrap(expr: sp.Expr) -> str:
+    text = _fixed_code(expr)
+    return f"({text})" if expr.is_Add else text
+
+
+def _fixed_product(factors: list[str]) -> str:
+    text = factors[0]
+    for factor in factors[1:]:
+        text = f"(({text}*{factor}) >> P)"
+    return text
+
+
+def zero_power_source() -> str:
+    """Python source of ``twoel/integrals/_exponential.py`` (deterministic)."""
+    forms = zero_power_forms()
+    names = list(forms)
+    replacements, reduced = sp.cse([sp.factor(forms[n]) for n in names],
+                                   symbols=sp.numbered_symbols("t"), optimizations="basic")
+    lines = [
+        '"""Zero-power integrals in 1/A, 1/B, 1/C, generated by twoel.integrals.symbolic.zero_power_source.',
+        "",
+        "Do not edit: regenerate with ``python -m twoel.integrals.generate``.  With",
+        "``A = α+β, B = β+γ, C = γ+α`` of a primitive pair and ``a, b, c = 1/A, 1/B, 1/C``, each value",
+        "is the integral (or combination, see ``symbolic.zero_power_forms``) divided by 16π².  Only",
+        "``+ - *`` and integer constants appear, so the same code serves float64 arrays, double-double",
+        "numbers and exact fixed-point integers.",
+        '"""',
+        "",
+        "#: names of the values returned by :func:`zero_power_integrals`, in order",
+        f"NAMES = {tuple(names)!r}",
+        "#: total degree of each polynomial in (a, b, c)",
+        f"DEGREES = {tuple(int(sp.Poly(forms[n], INV_A, INV_B, INV_C).total_degree()) for n in names)!r}",
+        "",
+        "",
+        "def zero_power_integrals(a, b, c):",
+        '    """Return ``(overlap, nuclear, repulsion, kinetic_1, kinetic_2)`` divided by 16π²."""',
+    ]
+    for symbol, value in replacements:
+        lines.append(f"    {symbol} = {_product_code(value)}")
+    lines.append("    return (")
+    for expr in reduced:
+        lines.append(f"        {_product_code(expr)},")
+    lines += ["    )", ""]
+    lines += ["", "def zero_power_integrals_fixed(a, b, c, P):",
+              '    """As :func:`zero_power_integrals` for integers at scale ``2^P`` (results at ``2^P``)."""']
+    for symbol, value in replacements:
+        lines.append(f"    {symbol} = {_fixed_code(value)}")
+    lines.append("    return (")
+    for expr in reduced:
+        lines.append(f"        {_fixed_code(expr)},")
+    lines += ["    )", ""]
+    for shift in ZERO_POWER_MONOMIALS:
+        expr = sp.factor(inverse_sum_form(*shift))
+        lines += ["", f"def {_monomial_name(shift)}(a, b, c):",
+                  f'    """``I{shift!r} / (16π²)``."""',
+                  f"    return {_product_code(expr)}", ""]
+    lines += ["", "#: single integrals by power shift ``(p, q, s)`` of ``(r1, r2, r12)``", "MONOMIALS = {"]
+    for shift in ZERO_POWER_MONOMIALS:
+        lines.append(f"    {shift!r}: {_monomial_name(shift)},")
+    lines += ["}", ""]
     return "\n".join(lines)

@@ -1,50 +1,114 @@
-"""Render a :class:`pandas.DataFrame` of results as Markdown, CSV, LaTeX or JSON text.
+r"""Render a :class:`pandas.DataFrame` of results as Markdown, CSV, LaTeX, JSON (or HTML) text.
 
-The renderers are written here (no optional pandas extras needed).  Floats are printed with
-``repr`` precision unless a column format is given, so no digit is lost on the way to a paper.
+CSV and JSON are for machines: every selected column, every float at full ``repr`` precision
+(``%.17g``), nothing folded.  Markdown, LaTeX and HTML are for people and papers:
+
+* digits are grouped in threes after the decimal point (``-2.903 724 377 034``; thin spaces
+  ``\,`` in LaTeX, narrow no-break spaces in Markdown/HTML; ISO 80000-1 §7.3.1);
+* a value column with its uncertainty column beside it (see :data:`UNCERTAINTY_COLUMNS`) is
+  written once in the parenthesis notation ``-2.903 724 377 034(2)``, and the uncertainty
+  column is then not repeated;
+* reference values are printed from their exact text (``reference_hartree_text``) when the frame
+  has it, so digits beyond float64 survive;
+* small differences and increments are printed in scientific notation with 3 digits;
+* ``reference_key`` becomes ``\cite{key}`` in LaTeX (the keys are the entries of
+  ``data/references.bib``);
+* term symbols ``1^1S`` become :math:`1\,^1\mathrm{S}`.
+
+The LaTeX is a booktabs ``tabular`` (wrapped in ``table`` with ``\caption``/``\label`` when a
+caption is given); the document needs ``\usepackage{booktabs}``.
 """
 
 from __future__ import annotations
 
+import html as _html
 import io
 import json
 import math
+import re
 
 import pandas as pd
 
 from ..errors import InputError
+from .numbers import (NARROW_NBSP, format_uncertain, group_digits, latex_number, latex_scientific,
+                      text_scientific)
 
 TABLE_FORMATS = ("markdown", "csv", "latex", "json")
 
+#: value column -> the column holding its standard uncertainty (same unit)
+UNCERTAINTY_COLUMNS = {
+    "energy_hartree": "error_bar_hartree",
+    "reference_hartree": "reference_uncertainty_hartree",
+}
 
-def _cell(value, float_format: str | None = None) -> str:
-    if value is None or (isinstance(value, float) and math.isnan(value)):
-        return "—"
-    if isinstance(value, bool):
-        return "yes" if value else "no"
-    if isinstance(value, float):
-        return format(value, float_format) if float_format else repr(value)
-    return str(value)
+#: value column -> the column holding its exact decimal text
+TEXT_COLUMNS = {"reference_hartree": "reference_hartree_text"}
 
+#: columns printed in scientific notation (3 significant digits) for people
+SCIENTIFIC_COLUMNS = frozenset({
+    "difference_hartree", "increment_hartree", "error_bar_hartree", "extrapolation_error_hartree",
+    "reference_uncertainty_hartree", "condition_number", "residual_hartree", "ratio_error_hartree",
+})
 
-def to_markdown(frame: pd.DataFrame, formats: dict[str, str] | None = None) -> str:
-    formats = formats or {}
-    header = "| " + " | ".join(str(c) for c in frame.columns) + " |"
-    rule = "|" + "|".join("---:" if pd.api.types.is_numeric_dtype(frame[c]) else "---" for c in frame.columns) + "|"
-    lines = [header, rule]
-    for _, row in frame.iterrows():
-        lines.append("| " + " | ".join(_cell(row[c], formats.get(c)) for c in frame.columns) + " |")
-    return "\n".join(lines) + "\n"
+#: columns printed as term symbols / citation keys
+STATE_COLUMNS = frozenset({"state"})
+CITATION_COLUMNS = frozenset({"reference_key", "key"})
 
-
-def to_csv(frame: pd.DataFrame) -> str:
-    buffer = io.StringIO()
-    frame.to_csv(buffer, index=False, float_format="%.17g")
-    return buffer.getvalue()
-
+#: column name -> (plain-text label, LaTeX label)
+COLUMN_LABELS = {
+    "Z": ("Z", r"$Z$"),
+    "ion": ("ion", "ion"),
+    "state": ("state", "state"),
+    "family": ("family", "family"),
+    "size": ("size", "size"),
+    "n_terms": ("N", r"$N$"),
+    "energy_hartree": ("E (Eh)", r"$E$ ($E_\mathrm{h}$)"),
+    "error_bar_hartree": ("error bar (Eh)", r"$\sigma_E$ ($E_\mathrm{h}$)"),
+    "reference_hartree": ("E_ref (Eh)", r"$E_\mathrm{ref}$ ($E_\mathrm{h}$)"),
+    "reference_uncertainty_hartree": ("σ_ref (Eh)", r"$\sigma_\mathrm{ref}$ ($E_\mathrm{h}$)"),
+    "reference_key": ("ref.", "Ref."),
+    "reference_source": ("source", "source"),
+    "difference_hartree": ("E − E_ref (Eh)", r"$E-E_\mathrm{ref}$ ($E_\mathrm{h}$)"),
+    "agreeing_digits": ("digits", "digits"),
+    "increment_hartree": ("ΔE (Eh)", r"$\Delta E$ ($E_\mathrm{h}$)"),
+    "extrapolated_hartree": ("E_extrap (Eh)", r"$E_\mathrm{extrap}$ ($E_\mathrm{h}$)"),
+    "extrapolation_error_hartree": ("E − E_extrap (Eh)", r"$E-E_\mathrm{extrap}$ ($E_\mathrm{h}$)"),
+    "ionization_energy_hartree": ("I (Eh)", r"$I$ ($E_\mathrm{h}$)"),
+    "ionization_energy_ev": ("I (eV)", r"$I$ (eV)"),
+    "ionization_energy_cm1": ("I (cm⁻¹)", r"$I$ (cm$^{-1}$)"),
+    "correlation_energy_hartree": ("E_corr (Eh)", r"$E_\mathrm{corr}$ ($E_\mathrm{h}$)"),
+    "virial_ratio": ("−V/T", r"$-\langle V\rangle/\langle T\rangle$"),
+    "bound": ("bound", "bound"),
+}
 
 _LATEX_SPECIAL = {"&": r"\&", "%": r"\%", "$": r"\$", "#": r"\#", "_": r"\_", "{": r"\{", "}": r"\}",
                   "~": r"\textasciitilde{}", "^": r"\textasciicircum{}", "\\": r"\textbackslash{}"}
+_TERM = re.compile(r"^(\d+)\^(\d+)([SPDFGHIK])$")
+_TERM_IN_TEXT = re.compile(r"(?<![\w^])(\d+)\^(\d+)([SPDFGHIK])(?!\w)")
+_ION = re.compile(r"^([A-Z][a-z]?)(\d*)([+-])$")
+
+
+def _latex_term(match) -> str:
+    return rf"${match.group(1)}\,^{{{match.group(2)}}}\mathrm{{{match.group(3)}}}$"
+
+
+def latex_text(text: str) -> str:
+    """Escape plain text for LaTeX, writing term symbols such as ``2^3S`` in math mode."""
+    text = str(text)
+    out, pos = [], 0
+    for m in _TERM_IN_TEXT.finditer(text):
+        out += [latex_escape(text[pos:m.start()]), _latex_term(m)]
+        pos = m.end()
+    out.append(latex_escape(text[pos:]))
+    return "".join(out)
+
+
+def latex_ion(label: str) -> str:
+    """``Be2+`` -> ``Be$^{2+}$``, ``H-`` -> ``H$^{-}$``; other labels are escaped."""
+    m = _ION.match(str(label))
+    if not m:
+        return latex_escape(label)
+    return rf"{m.group(1)}$^{{{m.group(2)}{m.group(3)}}}$"
 
 
 def latex_escape(text: str) -> str:
@@ -52,58 +116,231 @@ def latex_escape(text: str) -> str:
     return "".join(_LATEX_SPECIAL.get(ch, ch) for ch in str(text))
 
 
-def _latex_cell(value, float_format: str | None = None) -> str:
-    if value is None or (isinstance(value, float) and math.isnan(value)):
-        return "---"
-    if isinstance(value, float):
-        text = format(value, float_format) if float_format else repr(value)
+def _missing(value) -> bool:
+    if value is None:
+        return True
+    try:
+        return bool(pd.isna(value))
+    except (TypeError, ValueError):
+        return False
+
+
+def select_columns(frame: pd.DataFrame, columns=None) -> list[str]:
+    """Validate a column choice (a list or a comma-separated string; ``None``/``"all"``: all)."""
+    if columns is None:
+        return [str(c) for c in frame.columns]
+    if isinstance(columns, str):
+        if columns.strip().lower() == "all":
+            return [str(c) for c in frame.columns]
+        columns = [c.strip() for c in columns.split(",") if c.strip()]
+    columns = list(columns)
+    if not columns:
+        raise InputError("the column list is empty")
+    unknown = [c for c in columns if c not in frame.columns]
+    if unknown:
+        raise InputError(f"unknown column(s) {', '.join(unknown)}; available: "
+                         f"{', '.join(str(c) for c in frame.columns)}")
+    if len(set(columns)) != len(columns):
+        raise InputError("a column is listed twice")
+    return columns
+
+
+def _shown_columns(columns: list[str]) -> list[str]:
+    """Columns people see: uncertainty and exact-text columns folded into their value column."""
+    folded = {UNCERTAINTY_COLUMNS[c] for c in columns if UNCERTAINTY_COLUMNS.get(c) in columns}
+    folded |= {TEXT_COLUMNS[c] for c in columns if TEXT_COLUMNS.get(c) in columns}
+    return [c for c in columns if c not in folded]
+
+
+def _number_text(row, column: str, columns: list[str], max_decimals: int | None) -> str | None:
+    """Ungrouped fixed-point (or concise-notation) text of a float cell, or None if scientific."""
+    value = row[column]
+    text_col = TEXT_COLUMNS.get(column)
+    if text_col is not None and text_col in row.index and not _missing(row[text_col]):
+        value = str(row[text_col])
+    unc_col = UNCERTAINTY_COLUMNS.get(column)
+    uncertainty = None
+    if unc_col in columns and not _missing(row[unc_col]):
+        uncertainty = row[unc_col]
+    if isinstance(value, float) and uncertainty is None and "e" in repr(value):
+        return None
+    return format_uncertain(value, uncertainty, max_decimals=max_decimals)
+
+
+def _display_cell(row, column: str, columns: list[str], style: str, max_decimals: int | None,
+                  formats: dict | None = None) -> str:
+    """One cell for ``style`` in ``("markdown", "latex", "html")``.
+
+    A format spec in ``formats[column]`` (e.g. ``".12f"``) prints a float exactly so, ungrouped.
+    """
+    value = row[column]
+    if _missing(value):
+        return "---" if style == "latex" else "—"
+    spec = (formats or {}).get(column)
+    if spec and (isinstance(value, float) or getattr(getattr(value, "dtype", None), "kind", "") == "f"):
+        text = format(float(value), spec)
+        if style != "latex":
+            return text
         if "e" in text:
             mantissa, exponent = text.split("e")
             return "$" + mantissa + r"\times 10^{" + str(int(exponent)) + "}$"
         return "$" + text + "$"
-    return latex_escape(_cell(value))
+    if isinstance(value, (bool,)) or type(value).__name__ == "bool_":
+        return "yes" if value else "no"
+    if column in CITATION_COLUMNS:
+        keys = [k.strip() for k in str(value).split(";") if k.strip()]
+        if style == "latex":
+            return r"\cite{" + ",".join(keys) + "}"
+        return ", ".join(f"[{k}]" for k in keys)
+    if column in STATE_COLUMNS and style == "latex":
+        m = _TERM.match(str(value))
+        return _latex_term(m) if m else latex_escape(value)
+    if column == "ion" and style == "latex":
+        return latex_ion(value)
+    if isinstance(value, (int,)) or (hasattr(value, "dtype") and getattr(value.dtype, "kind", "") in "iu"):
+        return f"${int(value)}$" if style == "latex" else str(int(value))
+    if isinstance(value, float) or (hasattr(value, "dtype") and getattr(value.dtype, "kind", "") == "f"):
+        value = float(value)
+        if not math.isfinite(value):
+            return "---" if style == "latex" else "—"
+        if column == "Z" and value == int(value):
+            text = str(int(value))
+            return f"${text}$" if style == "latex" else text
+        text = None if column in SCIENTIFIC_COLUMNS else _number_text(row, column, columns, max_decimals)
+        if text is None:
+            return latex_scientific(value) if style == "latex" else text_scientific(value)
+        if style == "latex":
+            return latex_number(text)
+        return group_digits(text, NARROW_NBSP)
+    return latex_escape(value) if style == "latex" else str(value)
 
 
-def to_latex(frame: pd.DataFrame, caption: str | None = None, formats: dict[str, str] | None = None) -> str:
+def _header(column: str, style: str) -> str:
+    plain_label, latex_label = COLUMN_LABELS.get(column, (column, None))
+    if style == "latex":
+        return latex_label if latex_label is not None else latex_escape(column)
+    return plain_label
+
+
+def _numeric(frame: pd.DataFrame, column: str) -> bool:
+    return pd.api.types.is_numeric_dtype(frame[column]) and not pd.api.types.is_bool_dtype(frame[column])
+
+
+def to_markdown(frame: pd.DataFrame, formats: dict[str, str] | None = None, columns=None,
+                max_decimals: int | None = 15) -> str:
+    """A GitHub-style pipe table with grouped digits and concise uncertainties.
+
+    ``formats`` maps a column to a format spec (``".12f"``) printed as is, without grouping.
+    """
+    columns = select_columns(frame, columns)
+    shown = _shown_columns(columns)
+    header = "| " + " | ".join(_header(c, "markdown") for c in shown) + " |"
+    rule = "|" + "|".join("---:" if _numeric(frame, c) else "---" for c in shown) + "|"
+    lines = [header, rule]
+    for _, row in frame.iterrows():
+        cells = [_display_cell(row, c, columns, "markdown", max_decimals, formats).replace("|", r"\|")
+                 for c in shown]
+        lines.append("| " + " | ".join(cells) + " |")
+    return "\n".join(lines) + "\n"
+
+
+def to_csv(frame: pd.DataFrame, columns=None) -> str:
+    """CSV of the selected columns, floats at full precision."""
+    columns = select_columns(frame, columns)
+    buffer = io.StringIO()
+    frame[columns].to_csv(buffer, index=False, float_format="%.17g", lineterminator="\n")
+    return buffer.getvalue()
+
+
+def to_latex(frame: pd.DataFrame, caption: str | None = None, formats: dict[str, str] | None = None,
+             columns=None, label: str | None = None, max_decimals: int | None = 15) -> str:
     """A booktabs ``tabular`` (inside ``table`` when a caption is given)."""
-    formats = formats or {}
-    align = "".join("r" if pd.api.types.is_numeric_dtype(frame[c]) else "l" for c in frame.columns)
+    columns = select_columns(frame, columns)
+    shown = _shown_columns(columns)
+    align = "".join("r" if _numeric(frame, c) else "l" for c in shown)
     lines = []
     if caption:
-        lines += [r"\begin{table}", r"\centering", rf"\caption{{{latex_escape(caption)}}}"]
+        lines += [r"\begin{table}", r"\centering", rf"\caption{{{latex_text(caption)}}}"]
+        if label:
+            lines.append(rf"\label{{{latex_escape(label)}}}")
     lines += [rf"\begin{{tabular}}{{{align}}}", r"\toprule",
-              " & ".join(latex_escape(c) for c in frame.columns) + r" \\", r"\midrule"]
+              " & ".join(_header(c, "latex") for c in shown) + r" \\", r"\midrule"]
     for _, row in frame.iterrows():
-        lines.append(" & ".join(_latex_cell(row[c], formats.get(c)) for c in frame.columns) + r" \\")
+        lines.append(" & ".join(_display_cell(row, c, columns, "latex", max_decimals, formats)
+                                for c in shown) + r" \\")
     lines += [r"\bottomrule", r"\end{tabular}"]
     if caption:
         lines.append(r"\end{table}")
     return "\n".join(lines) + "\n"
 
 
-def to_json(frame: pd.DataFrame) -> str:
+def to_json(frame: pd.DataFrame, columns=None) -> str:
+    """A JSON list of records (NaN becomes ``null``), floats at full precision."""
+    columns = select_columns(frame, columns)
     records = []
     for _, row in frame.iterrows():
         record = {}
-        for c in frame.columns:
+        for c in columns:
             v = row[c]
-            if isinstance(v, float) and math.isnan(v):
+            if _missing(v):
                 v = None
             elif hasattr(v, "item"):
                 v = v.item()
+            if isinstance(v, float) and not math.isfinite(v):
+                v = None
             record[str(c)] = v
         records.append(record)
     return json.dumps(records, indent=2, ensure_ascii=False) + "\n"
 
 
-def render(frame: pd.DataFrame, fmt: str, caption: str | None = None) -> str:
-    """Render ``frame`` in one of :data:`TABLE_FORMATS`."""
+def to_html(frame: pd.DataFrame, columns=None, caption: str | None = None,
+            max_decimals: int | None = 15) -> str:
+    """A plain HTML ``<table>`` with the same cells as the Markdown table."""
+    columns = select_columns(frame, columns)
+    shown = _shown_columns(columns)
+    out = ["<table>"]
+    if caption:
+        out.append(f"<caption>{_html.escape(caption)}</caption>")
+    out.append("<thead><tr>" + "".join(f"<th>{_html.escape(_header(c, 'html'))}</th>" for c in shown)
+               + "</tr></thead>")
+    out.append("<tbody>")
+    for _, row in frame.iterrows():
+        cells = []
+        for c in shown:
+            align = ' style="text-align:right"' if _numeric(frame, c) else ""
+            cells.append(f"<td{align}>{_html.escape(_display_cell(row, c, columns, 'html', max_decimals))}</td>")
+        out.append("<tr>" + "".join(cells) + "</tr>")
+    out += ["</tbody>", "</table>"]
+    return "\n".join(out) + "\n"
+
+
+def render(frame: pd.DataFrame, fmt: str, caption: str | None = None, columns=None,
+           label: str | None = None, max_decimals: int | None = 15) -> str:
+    """Render ``frame`` in one of :data:`TABLE_FORMATS` (or ``"html"``).
+
+    Parameters
+    ----------
+    frame : pandas.DataFrame
+        One row per result.
+    fmt : str
+        ``"markdown"``, ``"csv"``, ``"latex"``, ``"json"`` or ``"html"``.
+    caption : str, optional
+        Table caption (LaTeX: wraps the tabular in a ``table`` float).
+    columns : list of str or str, optional
+        Columns to keep, in order (comma-separated text allowed; ``"all"``/``None``: all).
+    label : str, optional
+        LaTeX ``\\label``.
+    max_decimals : int, optional
+        Most digits after the point in the human formats (default 15).
+    """
     if fmt == "markdown":
-        return to_markdown(frame)
+        return to_markdown(frame, columns=columns, max_decimals=max_decimals)
     if fmt == "csv":
-        return to_csv(frame)
+        return to_csv(frame, columns=columns)
     if fmt == "latex":
-        return to_latex(frame, caption=caption)
+        return to_latex(frame, caption=caption, columns=columns, label=label, max_decimals=max_decimals)
     if fmt == "json":
-        return to_json(frame)
+        return to_json(frame, columns=columns)
+    if fmt == "html":
+        return to_html(frame, columns=columns, caption=caption, max_decimals=max_decimals)
     raise InputError(f"unknown table format {fmt!r}; choose one of {', '.join(TABLE_FORMATS)}")

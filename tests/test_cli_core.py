@@ -1,0 +1,85 @@
+"""Command line: the energy and series contracts and clean errors."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+
+from twoel.cli import main
+
+
+def run_cli(capsys, *argv):
+    code = main(list(argv))
+    out = capsys.readouterr()
+    return code, out.out, out.err
+
+
+def test_energy_json_contract(capsys):
+    code, out, _err = run_cli(capsys, "energy", "--Z", "2", "--family", "hylleraas", "--size", "4", "--json")
+    assert code == 0
+    data = json.loads(out)
+    for key in ("Z", "state", "family", "n_terms", "energy_hartree", "ionization_energy_hartree",
+                "ionization_energy_ev", "reference_energy_hartree", "parameters", "bound"):
+        assert key in data
+    assert data["state"] == "1^1S" and data["family"] == "hylleraas" and data["bound"] is True
+    assert isinstance(data["energy_hartree"], float)
+    assert data["ionization_energy_hartree"] == pytest.approx(-2.0 - data["energy_hartree"], abs=1e-15)
+    # Schwartz (2006) reference attached
+    assert data["reference_energy_hartree"] == pytest.approx(-2.9037243770341196, abs=1e-15)
+    assert -2.90373 < data["energy_hartree"] < -2.9036
+    assert set(data["parameters"]) == {"alpha"}
+    assert data["provenance"]["version"]
+
+
+def test_energy_summary_prints_units_and_reference(capsys):
+    code, out, _ = run_cli(capsys, "energy", "--Z", "He", "--family", "screened")
+    assert code == 0
+    assert "-2.84765625" in out and "eV" in out and "cm⁻¹" in out and "Schwartz" in out
+
+
+def test_not_bound_is_reported_as_such(capsys):
+    code, out, _ = run_cli(capsys, "energy", "--Z", "1", "--family", "screened", "--json")
+    data = json.loads(out)
+    assert code == 0 and data["bound"] is False and data["ionization_energy_hartree"] is None
+    code, out, _ = run_cli(capsys, "energy", "--Z", "1", "--family", "screened")
+    assert "not bound" in out
+
+
+@pytest.mark.parametrize("argv", [
+    ["energy", "--Z", "0"], ["energy", "--Z", "-3"], ["energy", "--Z", "abc"],
+    ["energy", "--Z", "2", "--family", "nope"], ["energy", "--Z", "2", "--size", "100000"],
+    ["energy", "--Z", "2", "--state", "7^5Q"], ["energy", "--Z", "2", "--param", "alpha=__import__"],
+    ["series", "--Z", "10:1"], ["energy"], ["energy", "--Z", "2", "--terms", "1,2"],
+])
+def test_bad_input_is_one_line_and_nonzero(capsys, argv):
+    try:
+        code = main(argv)
+    except SystemExit as exc:  # argparse usage errors
+        code = exc.code
+    err = capsys.readouterr().err
+    assert code != 0
+    assert "Traceback" not in err
+    assert len(err.strip().splitlines()) == 1, err
+
+
+def test_series_formats(capsys):
+    code, out, _ = run_cli(capsys, "series", "--Z", "2:3", "--family", "screened", "--format", "csv")
+    assert code == 0
+    lines = out.strip().splitlines()
+    assert lines[0].startswith("Z,") and len(lines) == 3
+    code, out, _ = run_cli(capsys, "series", "--Z", "2,3", "--family", "screened", "--format", "json")
+    rows = json.loads(out)
+    assert [r["ion"] for r in rows] == ["He", "Li+"]
+    assert rows[1]["energy_hartree"] == pytest.approx(-(3 - 5 / 16) ** 2, abs=1e-11)
+    code, out, _ = run_cli(capsys, "series", "--Z", "2:3", "--family", "screened", "--format", "latex")
+    assert out.count(r"\begin{tabular}") == out.count(r"\end{tabular}") == 1
+    code, out, _ = run_cli(capsys, "series", "--Z", "1:2", "--family", "screened")
+    assert out.startswith("| Z |")
+
+
+def test_console_entry_point_runs_as_module():
+    proc = subprocess.run([sys.executable, "-m", "twoel", "energy", "--Z", "2", "--family", "hydrogenic", "--json"],
+                          capture_output=True, text=True, timeout=120)
+    assert proc.returncode == 0, proc.stderr
+    assert json.loads(proc.stdout)["energy_hartree"] == pytest.approx(-2.75, abs=1e-12)

@@ -1,0 +1,204 @@
+r"""Quasi-random exponent boxes for excited S and for P states (stored in
+``data/exponential_boxes_excited.json``).
+
+An exponential basis ``e^{-α_i r1 - β_i r2 - γ_i r12}`` (S) or ``z1 e^{-α_i r1 - β_i r2 - γ_i r12}``
+(P) takes its exponents from a few *boxes* ``[α_lo, α_hi] × [β_lo, β_hi] × [γ_lo, γ_hi]``,
+filled by the quasi-random sequence ``x_i = frac(i(i+1)/2 · sqrt(p))`` with ``p = 2, 3, 5``
+for ``α, β, γ`` (the construction of Korobov, Phys. Rev. A 61, 064503 (2000), for
+exponential bases).  A box also has a ``fraction`` of the ``size`` functions it receives.
+The file schema, the edge names ``box<k>_alpha_min`` ... and the exponent generation are
+those of the ``exponential`` family's ground-state tables, so either side reads the other's
+entries and reproduces the same basis.  Only the box bounds are nonlinear parameters, so a
+handful of numbers fixes a basis of any size.
+
+Stored entries (see DEVELOPERS.md, "Excited-state boxes") are keyed by ``Z`` and state label.
+For a charge without an entry the helium boxes are rescaled: inner-electron ranges by ``Z/2``,
+outer ones by ``(Z - 1)``; the result is marked ``"scaled"`` and is a starting point only.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+from math import isqrt
+
+import numpy as np
+
+from ..errors import InputError, UnsupportedError
+from ..reference import data_root
+from ..system import Ion, State
+from .base import Parameter
+
+DATA_FILE = "exponential_boxes_excited.json"
+#: the schema shared with every ``data/exponential_boxes*.json`` file (see DEVELOPERS.md)
+SCHEMA = "twoel-exponential-boxes/1"
+PRIMES = (2, 3, 5)
+EDGE_KEYS = ("alpha_min", "alpha_max", "beta_min", "beta_max", "gamma_min", "gamma_max")
+#: floor of every box edge (bohr⁻¹): edges are optimized on a log scale and must stay > 0
+EDGE_FLOOR = 1e-4
+#: triplet S guard: smallest accepted (α - β) / (α + β)
+TRIPLET_SEPARATION = 0.05
+_SQRT_BITS = 64
+
+
+@dataclass(frozen=True)
+class Box:
+    """One box ``[α_min, α_max] × [β_min, β_max] × [γ_min, γ_max]`` (bohr⁻¹) and its fraction."""
+
+    fraction: float
+    alpha: tuple[float, float]
+    beta: tuple[float, float]
+    gamma: tuple[float, float]
+
+    def bounds(self) -> list[float]:
+        return [*self.alpha, *self.beta, *self.gamma]
+
+    def to_dict(self) -> dict:
+        return {"fraction": self.fraction, "alpha": list(self.alpha), "beta": list(self.beta),
+                "gamma": list(self.gamma)}
+
+
+def quasi_random(count: int, prime: int, skip: int = 0) -> np.ndarray:
+    """Fractional parts ``frac(i(i+1)/2 · sqrt(prime))`` for ``i = skip+1 .. skip+count``.
+
+    Exact integer arithmetic (``sqrt(p)`` to 64 bits), so the exponents are platform independent.
+    """
+    root = isqrt(prime << (2 * _SQRT_BITS))
+    mask = (1 << _SQRT_BITS) - 1
+    values = np.empty(count)
+    for n, i in enumerate(range(skip + 1, skip + count + 1)):
+        values[n] = ((i * (i + 1) // 2 * root) & mask) / float(1 << _SQRT_BITS)
+    return values
+
+
+def split_counts(fractions, size: int) -> list[int]:
+    """Split ``size`` functions over boxes in proportion to ``fractions`` (cumulative rounding)."""
+    fractions = np.asarray(fractions, dtype=float)
+    if np.any(fractions <= 0):
+        raise InputError("box fractions must be positive")
+    cumulative = np.rint(np.cumsum(fractions) / fractions.sum() * size).astype(int)
+    return [int(c) for c in np.diff(np.concatenate([[0], cumulative]))]
+
+
+def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: bool = False) -> np.ndarray:
+    """Exponents ``(α, β, γ)`` of ``size`` functions drawn from the boxes, shape (size, 3).
+
+    With ``guard_triplet`` (triplet S states, where ``(1 - P12)`` annihilates ``α = β``) each
+    point is ordered ``α > β`` and points with ``α - β < 0.05 (α + β)`` are skipped.
+    """
+    rows = []
+    for box, count in zip(boxes, split_counts([b.fraction for b in boxes], size)):
+        if count == 0:
+            continue
+        taken, skip = [], 0
+        while len(taken) < count:
+            want = count - len(taken) if not guard_triplet else 2 * (count - len(taken)) + 8
+            ua, ub, ug = (quasi_random(want, p, skip) for p in PRIMES)
+            skip += want
+            alpha = box.alpha[0] + (box.alpha[1] - box.alpha[0]) * ua
+            beta = box.beta[0] + (box.beta[1] - box.beta[0]) * ub
+            gamma = box.gamma[0] + (box.gamma[1] - box.gamma[0]) * ug
+            if guard_triplet:
+                hi, lo = np.maximum(alpha, beta), np.minimum(alpha, beta)
+                ok = (hi - lo) >= TRIPLET_SEPARATION * (hi + lo)
+                alpha, beta, gamma = hi[ok], lo[ok], gamma[ok]
+            taken.extend(zip(alpha.tolist(), beta.tolist(), gamma.tolist()))
+            if skip > 200 * count + 1000:
+                raise InputError("triplet box has almost no points with α ≠ β; separate the "
+                                 "α and β ranges")
+        rows.extend(taken[:count])
+    return np.array(rows, dtype=float)
+
+
+@lru_cache(maxsize=None)
+def _table() -> dict:
+    path = data_root().joinpath(DATA_FILE)
+    if not path.is_file():
+        return {"schema": SCHEMA, "sets": []}
+    data = json.loads(path.read_text(encoding="utf-8"))
+    if data.get("schema") != SCHEMA:
+        raise InputError(f"{DATA_FILE}: unknown schema {data.get('schema')!r} (expected {SCHEMA})")
+    return data
+
+
+def stored_entry(Z: float, state: State) -> dict | None:
+    """The stored entry for ``(Z, state)`` or ``None``."""
+    for entry in _table()["sets"]:
+        if float(entry["Z"]) == float(Z) and entry["state"] == state.label:
+            return entry
+    return None
+
+
+def boxes_from_entry(entry: dict) -> list[Box]:
+    return [Box(float(b["fraction"]), tuple(b["alpha"]), tuple(b["beta"]), tuple(b["gamma"]))
+            for b in entry["boxes"]]
+
+
+def default_boxes(ion: Ion, state: State) -> tuple[list[Box], str]:
+    """Boxes for ``(ion, state)``: stored, rescaled from helium, or a generic guess."""
+    entry = stored_entry(ion.Z, state)
+    if entry is not None:
+        return boxes_from_entry(entry), "stored"
+    helium = stored_entry(2.0, state)
+    if helium is not None:
+        boxes = []
+        for b in boxes_from_entry(helium):
+            inner = b.alpha[1] > 1.2 and b.beta[1] > 1.2
+            fa = ion.Z / 2 if b.alpha[1] > 1.2 else max(ion.Z - 1.0, 0.05)
+            fb = ion.Z / 2 if b.beta[1] > 1.2 else max(ion.Z - 1.0, 0.05)
+            fg = ion.Z / 2 if inner else 1.0
+            boxes.append(Box(b.fraction, (b.alpha[0] * fa, b.alpha[1] * fa), (b.beta[0] * fb, b.beta[1] * fb),
+                             (b.gamma[0] * fg, b.gamma[1] * fg)))
+        return boxes, "scaled"
+    return generic_boxes(ion, state), "generic"
+
+
+def generic_boxes(ion: Ion, state: State) -> list[Box]:
+    """A hydrogenic guess: an inner 1s electron ``~Z`` and an outer ``nl`` electron ``~(Z-1)/n``."""
+    Z, n = ion.Z, state.n
+    outer = max(Z - 1.0, 0.1) / n
+    if state.L == 0:
+        return [Box(0.5, (0.6 * Z, 2.0 * Z), (0.6 * Z, 2.0 * Z), (0.0, 0.6)),
+                Box(0.5, (0.8 * Z, 1.3 * Z), (0.3 * outer, 2.0 * outer), (0.0, 0.3))]
+    return [Box(0.5, (0.3 * outer, 2.0 * outer), (0.8 * Z, 1.3 * Z), (0.0, 0.3)),
+            Box(0.5, (0.5 * outer, 3.0 * outer), (0.5 * Z, 2.0 * Z), (0.0, 0.8))]
+
+
+def box_parameters(boxes: list[Box]) -> list[Parameter]:
+    """The box bounds as nonlinear parameters ``box1_alpha_min`` ... (bohr⁻¹).
+
+    Lower ``γ`` bounds may be zero; they are kept at a small positive floor so that the
+    log-scale optimizer and the virial rescaling (which multiplies every exponent) apply.
+    """
+    params = []
+    for number, box in enumerate(boxes, start=1):
+        for name, value in zip(EDGE_KEYS, box.bounds()):
+            params.append(Parameter(f"box{number}_{name}", max(float(value), EDGE_FLOOR), EDGE_FLOOR, 1e4))
+    return params
+
+
+def boxes_from_values(template: list[Box], values: dict[str, float]) -> list[Box]:
+    """Rebuild boxes from parameter values (missing ones keep the template's)."""
+    out = []
+    for number, box in enumerate(template, start=1):
+        bounds = [float(values.get(f"box{number}_{name}", default))
+                  for name, default in zip(EDGE_KEYS, box.bounds())]
+        for lo, hi, what in ((0, 1, "alpha"), (2, 3, "beta"), (4, 5, "gamma")):
+            if not (math.isfinite(bounds[lo]) and math.isfinite(bounds[hi])):
+                raise InputError(f"box {number} {what} bounds must be finite")
+            if bounds[lo] > bounds[hi]:
+                bounds[lo], bounds[hi] = bounds[hi], bounds[lo]
+        out.append(Box(box.fraction, (bounds[0], bounds[1]), (bounds[2], bounds[3]), (bounds[4], bounds[5])))
+    return out
+
+
+def check_size(size, minimum: int = 2) -> int:
+    if size is None:
+        raise InputError("the exponential basis needs a size (number of functions)")
+    if isinstance(size, bool) or not isinstance(size, int) or size < minimum:
+        raise InputError(f"'size' must be an integer >= {minimum}, got {size!r}")
+    if size > 3000:
+        raise UnsupportedError(f"size {size} is beyond what float64 exponential bases can use (<= 3000)")
+    return size

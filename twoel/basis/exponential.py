@@ -1,0 +1,154 @@
+r"""Exponentially correlated basis ``Σ c_i (1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12)``.
+
+The exponents are not optimized one by one.  Following Korobov, Phys. Rev. A 61, 064503 (2000)
+(see also Frolov & Smith, J. Phys. B 28, L449 (1995)), they are spread deterministically over a
+few boxes ``[A1, A2] × [B1, B2] × [G1, G2]`` by the quasi-random sequence
+
+.. math:: \alpha_i = A_1 + (A_2 - A_1)\,\langle\!\langle \tfrac12 i(i+1)\sqrt{p_\alpha} \rangle\!\rangle
+
+(``⟨⟨x⟩⟩`` the fractional part, ``p = 2, 3, 5`` for ``α, β, γ``), so that only the box edges
+(six numbers per box) are nonlinear parameters.  They are optimized on a small basis and reused
+for larger ones; optimized edges for standard cases are shipped in ``data/exponential_boxes*.json``
+(:mod:`twoel.basis.exponential_boxes`), so a calculation needs no optimization run.
+
+``size`` is the number ``N`` of exponential terms.  Every power of the primitives is zero, so the
+matrices come from the closed-form fast path :mod:`twoel.integrals.zero_power`.
+
+Triplets: ``(1 - P12) exp(-α r1 - β r2 - γ r12)`` vanishes for ``α = β``; nearly equal ``α, β``
+give functions of tiny norm whose normalized form is a derivative-like combination that ruins
+the conditioning ("collapse").  For triplets each term is ordered ``α > β`` and a quasi-random
+point with ``α - β < 0.05 (α + β)`` is skipped (the sequence moves on to the next index).
+
+P states (``L = 1``) are served by :mod:`twoel.basis.exponential_p` when that module is present.
+"""
+
+from __future__ import annotations
+
+import importlib
+from math import isqrt
+
+import numpy as np
+
+from ..errors import InputError, UnsupportedError
+from ..matrices import CorrelatedBasis
+from ..system import Ion, State
+from .base import Parameter, TrialFamily
+from . import exponential_boxes as stored
+
+#: primes whose square roots drive the quasi-random sequences of α, β, γ (Korobov 2000)
+PRIMES = (2, 3, 5)
+#: triplet guard: smallest accepted (α - β) / (α + β)
+TRIPLET_SEPARATION = 0.05
+#: bits of the integer square roots (exact, platform-independent sequences)
+_SQRT_BITS = 64
+
+
+def quasi_random(count: int, prime: int, skip: int = 0) -> np.ndarray:
+    """Fractional parts ``⟨⟨i(i+1)/2 · √prime⟩⟩`` for ``i = skip + 1 .. skip + count``.
+
+    Computed in exact integer arithmetic (``√p`` to 64 bits), so the exponents are the same on
+    every platform.
+    """
+    root = isqrt(prime << (2 * _SQRT_BITS))
+    mask = (1 << _SQRT_BITS) - 1
+    values = np.empty(count)
+    for n, i in enumerate(range(skip + 1, skip + count + 1)):
+        values[n] = ((i * (i + 1) // 2 * root) & mask) / float(1 << _SQRT_BITS)
+    return values
+
+
+def box_exponents(boxes, size: int, sign: int) -> np.ndarray:
+    """Exponents ``(α, β, γ)`` of ``size`` terms spread over ``boxes`` (list of :class:`Box`).
+
+    Box ``k`` receives ``round(fraction_k · size)`` terms (the last box takes the rest).  For
+    triplets (``sign = -1``) terms are ordered ``α > β`` and nearly symmetric ones skipped.
+    """
+    counts = box_counts([b.fraction for b in boxes], size)
+    rows = []
+    for box, count in zip(boxes, counts):
+        if count == 0:
+            continue
+        (a1, a2), (b1, b2), (g1, g2) = box.alpha, box.beta, box.gamma
+        taken = []
+        skip = 0
+        while len(taken) < count:
+            want = count - len(taken) if sign > 0 else 2 * (count - len(taken)) + 8
+            ua, ub, ug = (quasi_random(want, p, skip) for p in PRIMES)
+            skip += want
+            alpha = a1 + (a2 - a1) * ua
+            beta = b1 + (b2 - b1) * ub
+            gamma = g1 + (g2 - g1) * ug
+            if sign < 0:
+                hi, lo = np.maximum(alpha, beta), np.minimum(alpha, beta)
+                ok = (hi - lo) >= TRIPLET_SEPARATION * (hi + lo)
+                alpha, beta, gamma = hi[ok], lo[ok], gamma[ok]
+            taken.extend(zip(alpha.tolist(), beta.tolist(), gamma.tolist()))
+            if skip > 200 * count + 1000:
+                raise InputError("triplet box has almost no points with α ≠ β; widen or separate "
+                                 "the α and β ranges")
+        rows.extend(taken[:count])
+    return np.array(rows, dtype=float)
+
+
+def box_counts(fractions, size: int) -> list[int]:
+    """Split ``size`` terms over boxes in proportion to ``fractions`` (deterministic)."""
+    fractions = np.asarray(fractions, dtype=float)
+    cumulative = np.rint(np.cumsum(fractions) / fractions.sum() * size).astype(int)
+    counts = np.diff(np.concatenate([[0], cumulative]))
+    return [int(c) for c in counts]
+
+
+def _p_module():
+    try:
+        return importlib.import_module(f"{__package__}.exponential_p")
+    except ModuleNotFoundError as exc:
+        if exc.name == f"{__package__}.exponential_p":
+            raise UnsupportedError("P states need twoel.basis.exponential_p") from None
+        raise
+
+
+class ExponentialFamily(TrialFamily):
+    """Exponentially correlated functions with quasi-random exponents in optimized boxes."""
+
+    name = "exponential"
+    summary = "Σ (1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12), quasi-random exponents in boxes (Korobov 2000)"
+    size_meaning = "N, the number of exponential terms"
+    default_size = 250
+    min_size = 4
+    max_size = 3000
+    optimize_by_default = False
+    option_names = ()
+    supported_L = (0, 1)
+    #: basis size on which ``--optimize`` tunes the box edges when the stored set gives none
+    optimization_default_size = 120
+
+    def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
+        if state.L == 1:
+            return _p_module().parameters(ion, state, size, options)
+        box_set = stored.box_set_for(ion, state)
+        return box_set.parameters()
+
+    def build(self, ion: Ion, state: State, size, values, options):
+        if state.L == 1:
+            return _p_module().build(ion, state, size, values, options)
+        box_set = stored.box_set_for(ion, state).with_values(values)
+        exponents = box_exponents(box_set.boxes, size, state.exchange_sign)
+        return CorrelatedBasis(np.zeros_like(exponents, dtype=int), exponents,
+                               sign=state.exchange_sign)
+
+    def optimization_size(self, ion: Ion, state: State, size: int) -> int:
+        """The (smaller) basis size on which ``optimize=True`` tunes the box edges."""
+        if state.L == 1:
+            return size
+        box_set = stored.box_set_for(ion, state)
+        target = box_set.optimized_size or self.optimization_default_size
+        return min(size, target)
+
+    def provenance(self, ion: Ion, state: State) -> dict:
+        """Where the box edges of ``(ion, state)`` come from (JSON-ready)."""
+        if state.L == 1:
+            return {"boxes": "twoel.basis.exponential_p"}
+        return stored.box_set_for(ion, state).provenance()
+
+
+FAMILY = ExponentialFamily()

@@ -1,0 +1,189 @@
+"""Box edges of the exponential family: data classes, the shipped tables and their loader.
+
+Every file ``data/exponential_boxes*.json`` is read (one schema, described in DEVELOPERS.md)::
+
+    {"schema": "twoel-exponential-boxes/1",
+     "sets": [{"Z": 2, "state": "1^1S",
+               "boxes": [{"fraction": 0.4, "alpha": [lo, hi], "beta": [lo, hi],
+                          "gamma": [lo, hi]}, ...],
+               "optimized_size": 150, "energy_hartree": -2.9037..., "method": "...",
+               "date": "YYYY-MM-DD"}, ...]}
+
+When two files give the same ``(Z, state)``, the set optimized on the larger basis wins (ties:
+the first file in name order).  For a ``(Z, state)`` without a stored set the nearest stored
+``Z`` of the same state is used with every edge scaled by ``Z / Z_stored`` (exponents of
+hydrogen-like orbitals scale with Z), and failing that a generic guess; the provenance says so.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass, field, replace
+from functools import lru_cache
+
+from ..errors import InputError
+from ..system import Ion, State
+from .base import Parameter
+
+SCHEMA = "twoel-exponential-boxes/1"
+FILE_PREFIX = "exponential_boxes"
+EDGE_KEYS = ("alpha_min", "alpha_max", "beta_min", "beta_max", "gamma_min", "gamma_max")
+#: floor of every box edge (bohr⁻¹): edges are optimized on a log scale and must stay > 0
+EDGE_FLOOR = 1e-4
+
+
+@dataclass(frozen=True)
+class Box:
+    """One box ``[α_min, α_max] × [β_min, β_max] × [γ_min, γ_max]`` (bohr⁻¹) and its share."""
+
+    alpha: tuple[float, float]
+    beta: tuple[float, float]
+    gamma: tuple[float, float]
+    fraction: float
+
+    def edges(self) -> tuple[float, ...]:
+        return (*self.alpha, *self.beta, *self.gamma)
+
+    def to_dict(self) -> dict:
+        return {"fraction": self.fraction, "alpha": list(self.alpha), "beta": list(self.beta),
+                "gamma": list(self.gamma)}
+
+    @classmethod
+    def from_edges(cls, edges, fraction: float) -> "Box":
+        e = [float(x) for x in edges]
+        pairs = [tuple(sorted(e[k:k + 2])) for k in (0, 2, 4)]
+        return cls(pairs[0], pairs[1], pairs[2], float(fraction))
+
+
+@dataclass(frozen=True)
+class BoxSet:
+    """The boxes of one ``(Z, state)`` with where they came from."""
+
+    Z: float
+    state: str
+    boxes: tuple[Box, ...]
+    optimized_size: int | None = None
+    energy_hartree: float | None = None
+    method: str = ""
+    date: str = ""
+    origin: str = "stored"
+    source_file: str = ""
+    extra: dict = field(default_factory=dict, compare=False)
+
+    def parameters(self) -> list[Parameter]:
+        params = []
+        for k, box in enumerate(self.boxes, start=1):
+            for key, value in zip(EDGE_KEYS, box.edges()):
+                params.append(Parameter(f"box{k}_{key}", max(value, EDGE_FLOOR), EDGE_FLOOR,
+                                        1e4, "exponent"))
+        return params
+
+    def with_values(self, values: dict) -> "BoxSet":
+        """The same boxes with edges taken from ``values`` (names of :meth:`parameters`)."""
+        boxes = []
+        for k, box in enumerate(self.boxes, start=1):
+            edges = [float(values.get(f"box{k}_{key}", v)) for key, v in zip(EDGE_KEYS, box.edges())]
+            boxes.append(Box.from_edges(edges, box.fraction))
+        return replace(self, boxes=tuple(boxes))
+
+    def provenance(self) -> dict:
+        return {"origin": self.origin, "Z": self.Z, "state": self.state,
+                "optimized_size": self.optimized_size, "energy_hartree": self.energy_hartree,
+                "method": self.method, "date": self.date, "file": self.source_file,
+                "boxes": [b.to_dict() for b in self.boxes]}
+
+    def to_dict(self) -> dict:
+        out = {"Z": self.Z, "state": self.state, "boxes": [b.to_dict() for b in self.boxes],
+               "optimized_size": self.optimized_size, "energy_hartree": self.energy_hartree,
+               "method": self.method, "date": self.date}
+        out.update(self.extra)
+        return out
+
+
+def parse_box_file(text: str, name: str = "<text>") -> list[BoxSet]:
+    """Parse and validate one ``exponential_boxes*.json`` document."""
+    try:
+        doc = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise InputError(f"{name}: not valid JSON ({exc})")
+    if not isinstance(doc, dict) or doc.get("schema") != SCHEMA:
+        raise InputError(f"{name}: expected schema {SCHEMA!r}")
+    sets = []
+    for n, entry in enumerate(doc.get("sets", [])):
+        where = f"{name} set {n}"
+        try:
+            Z = float(entry["Z"])
+            state = State.parse(entry["state"]).label
+            boxes = []
+            for box in entry["boxes"]:
+                edges = [*box["alpha"], *box["beta"], *box["gamma"]]
+                if len(edges) != 6 or not all(isinstance(x, (int, float)) for x in edges):
+                    raise InputError(f"{where}: each box needs alpha, beta, gamma as [min, max]")
+                if min(edges) < 0 or not 0 < float(box["fraction"]) <= 1:
+                    raise InputError(f"{where}: box edges must be >= 0 and 0 < fraction <= 1")
+                boxes.append(Box.from_edges(edges, box["fraction"]))
+        except (KeyError, TypeError, ValueError) as exc:
+            raise InputError(f"{where}: malformed entry ({exc})")
+        if not boxes:
+            raise InputError(f"{where}: no boxes")
+        known = {"Z", "state", "boxes", "optimized_size", "energy_hartree", "method", "date"}
+        sets.append(BoxSet(Z, state, tuple(boxes), entry.get("optimized_size"),
+                           entry.get("energy_hartree"), str(entry.get("method", "")),
+                           str(entry.get("date", "")), "stored", name,
+                           {k: v for k, v in entry.items() if k not in known}))
+    return sets
+
+
+def box_files() -> list[str]:
+    from ..reference import data_root
+
+    return sorted(p.name for p in data_root().iterdir()
+                  if p.name.startswith(FILE_PREFIX) and p.name.endswith(".json"))
+
+
+@lru_cache(maxsize=None)
+def stored_sets() -> dict[tuple[float, str], BoxSet]:
+    """All stored box sets by ``(Z, state label)``."""
+    from ..reference import read_data_text
+
+    table: dict[tuple[float, str], BoxSet] = {}
+    for name in box_files():
+        for box_set in parse_box_file(read_data_text(name), name):
+            key = (box_set.Z, box_set.state)
+            old = table.get(key)
+            if old is None or (box_set.optimized_size or 0) > (old.optimized_size or 0):
+                table[key] = box_set
+    return table
+
+
+def generic_boxes(ion: Ion, state: State) -> BoxSet:
+    """A starting guess scaled with Z (no optimization behind it)."""
+    Z = ion.Z
+    if state.n == 1:
+        boxes = (Box((0.3 * Z, 1.3 * Z), (0.3 * Z, 1.3 * Z), (0.05 * Z, 0.6 * Z), 0.5),
+                 Box((0.5 * Z, 3.0 * Z), (0.5 * Z, 3.0 * Z), (0.1 * Z, 1.5 * Z), 0.3),
+                 Box((1.0 * Z, 10.0 * Z), (0.2 * Z, 4.0 * Z), (0.01 * Z, 2.0 * Z), 0.2))
+    else:
+        outer = max(Z - 1.0, 0.2) / state.n
+        boxes = (Box((0.7 * Z, 1.5 * Z), (0.3 * outer, 1.5 * outer), (0.01, 0.3 * outer), 0.5),
+                 Box((0.5 * Z, 4.0 * Z), (0.1 * outer, 2.0 * outer), (0.02, 1.0 * outer), 0.3),
+                 Box((1.0 * Z, 10.0 * Z), (0.3 * outer, 3.0 * Z), (0.01, 2.0 * Z), 0.2))
+    return BoxSet(Z, state.label, boxes, None, None, "generic guess scaled with Z (not optimized)",
+                  "", "generic")
+
+
+def box_set_for(ion: Ion, state: State) -> BoxSet:
+    """The stored set for ``(Z, state)``, else a scaled neighbour, else :func:`generic_boxes`."""
+    table = stored_sets()
+    key = (ion.Z, state.label)
+    if key in table:
+        return table[key]
+    same_state = [s for (z, label), s in table.items() if label == state.label]
+    if same_state:
+        nearest = min(same_state, key=lambda s: (abs(s.Z - ion.Z), s.Z))
+        f = ion.Z / nearest.Z
+        boxes = tuple(Box((b.alpha[0] * f, b.alpha[1] * f), (b.beta[0] * f, b.beta[1] * f),
+                          (b.gamma[0] * f, b.gamma[1] * f), b.fraction) for b in nearest.boxes)
+        return replace(nearest, Z=ion.Z, boxes=boxes, origin=f"scaled from Z = {nearest.Z:g}",
+                       energy_hartree=None)
+    return generic_boxes(ion, state)

@@ -1,0 +1,46 @@
+r"""Exponential bases for P states (L = 1, odd parity): ``n¹P`` and ``n³P``.
+
+Functions ``z1 e^{-α_i r1 - β_i r2 - γ_i r12} ± (1 <-> 2)`` (the M = 0 component; see
+:class:`twoel.pbasis.PBasis`), exponents from quasi-random boxes
+(:mod:`twoel.basis.excited_boxes`; ``α`` belongs to the ``p`` electron, ``β`` to the ``1s``
+one).  Interface used by the ``exponential`` family::
+
+    parameters(ion, state, size, options) -> list[Parameter]
+    build(ion, state, size, values, options) -> PBasis
+
+The ``n``-th P root of a symmetry block is ``state.root = n - 2``.
+"""
+
+from __future__ import annotations
+
+from ..errors import UnsupportedError
+from ..pbasis import PBasis
+from ..system import Ion, State
+from . import excited_boxes as xb
+from .base import Parameter
+from .exponential_excited import basis_from_boxes
+
+
+def _check(state: State) -> None:
+    if state.L != 1:
+        raise UnsupportedError(f"exponential_p builds P states (L = 1) only, not {state.label}")
+
+
+def parameters(ion: Ion, state: State, size, options) -> list[Parameter]:
+    """Box bounds (bohr⁻¹) as nonlinear parameters, starting at the stored values."""
+    _check(state)
+    boxes, _origin = xb.default_boxes(ion, state)
+    return xb.box_parameters(boxes)
+
+
+def origin(ion: Ion, state: State) -> str:
+    """``"stored"``, ``"scaled"`` (from the helium boxes) or ``"generic"``."""
+    return xb.default_boxes(ion, state)[1]
+
+
+def build(ion: Ion, state: State, size, values, options) -> PBasis:
+    _check(state)
+    size = xb.check_size(size, minimum=state.root + 1)
+    template, _origin = xb.default_boxes(ion, state)
+    boxes = xb.boxes_from_values(template, values or {})
+    return basis_from_boxes(boxes, state, size)

@@ -1,0 +1,93 @@
+"""``twoel converge``: energies for a sequence of basis sizes, extrapolation and error bar."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from .common import charge, print_json
+
+NAME = "converge"
+HELP = "convergence of the energy with the basis size: differences, ratios, extrapolation, error bar"
+
+
+def size_list(text: str) -> list[int]:
+    """Parse ``"100,200,400"`` (no evaluation)."""
+    parts = [p.strip() for p in text.split(",") if p.strip()]
+    if len(parts) < 3 or not all(p.isdigit() for p in parts):
+        raise argparse.ArgumentTypeError(f"expected at least three comma-separated sizes, got {text!r}")
+    return [int(p) for p in parts]
+
+
+def add_parser(subparsers) -> None:
+    p = subparsers.add_parser(NAME, help=HELP, description=HELP)
+    p.add_argument("--Z", type=charge, required=True,
+                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    p.add_argument("--state", default="1^1S", help="term symbol (default 1^1S)")
+    p.add_argument("--family", default="exponential", help="trial-function family (default exponential)")
+    group = p.add_mutually_exclusive_group()
+    group.add_argument("--sizes", type=size_list, default=None,
+                       help="comma-separated increasing basis sizes, e.g. 100,141,200,283,400")
+    group.add_argument("--largest", type=int, default=400,
+                       help="largest size; the others follow by factors of √2 (default 400)")
+    p.add_argument("--count", type=int, default=5, help="number of sizes with --largest (default 5)")
+    p.add_argument("--precision", choices=("float64", "extended"), default="float64",
+                   help="arithmetic (see 'twoel energy --help')")
+    p.add_argument("--digits", type=int, default=None, help="with --precision extended: digit target")
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--quiet", action="store_true", help="no progress on stderr")
+    p.set_defaults(run=run)
+
+
+def table_text(study) -> str:
+    lines = [f"{study.ion} {study.state}  family {study.family}, {study.precision}",
+             f"{'N':>6}  {'E(N) / Eh':<34} {'E(N-1) - E(N)':>13}  {'ratio':>7}  {'time/s':>7}"]
+    from ..precision import truncate_text
+
+    for n, t, u, d, q, s in zip(study.sizes, study.energy_texts, study.numerical_errors,
+                                study.differences, study.ratios, study.seconds):
+        t = truncate_text(t, u)  # digits below the arithmetic error are not shown
+        dt = "" if d is None else f"{d:.3e}"
+        qt = "" if q is None else f"{q:.3f}"
+        lines.append(f"{n:>6}  {t:<34} {dt:>13}  {qt:>7}  {s:>7.2f}")
+    lines.append(f"variational (upper bound) E = {study.variational_hartree!r} Eh "
+                 f"± {study.variational_error_bar_hartree:.1e} (estimated truncation + arithmetic)")
+    lines.append(f"extrapolated E = {study.extrapolated_hartree!r} Eh ± {study.extrapolated_error_bar_hartree:.1e}")
+    lines.append(f"digits stood behind: {study.digits}")
+    if study.note:
+        lines.append(f"note: {study.note}")
+    if not study.reliable:
+        lines.append("warning: the sequence is not regular; the error bar may not be trustworthy")
+    if study.reference_hartree is not None:
+        lines.append(f"reference: {study.reference_text} Eh [{study.reference_source}]  "
+                     f"true error of the last energy: {study.variational_hartree - study.reference_hartree:+.2e} Eh")
+    return "\n".join(lines) + "\n"
+
+
+def run(args: argparse.Namespace) -> int:
+    from ..convergence import default_sizes, run_study
+    from ..errors import InputError
+
+    if args.sizes is None:
+        if args.count < 3:
+            raise InputError("'--count' must be at least 3")
+        sizes = default_sizes(args.largest, args.count)
+    else:
+        sizes = args.sizes
+    bar = None
+    if not args.quiet and not args.json and sys.stderr.isatty():
+        from tqdm import tqdm
+
+        bar = tqdm(total=len(sizes), desc="basis sizes", file=sys.stderr, leave=False)
+    try:
+        study = run_study(args.Z, args.state, sizes, family=args.family, precision=args.precision,
+                          digits=args.digits,
+                          progress=(lambda done, total: bar.update(1)) if bar is not None else None)
+    finally:
+        if bar is not None:
+            bar.close()
+    if args.json:
+        print_json(study.to_dict())
+    else:
+        sys.stdout.write(table_text(study))
+    return 0

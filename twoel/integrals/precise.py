@@ -1,0 +1,196 @@
+r"""Zero-power Hamiltonian matrices beyond float64: double-double arrays and exact fixed point.
+
+Both paths evaluate the *same* generated closed forms as the float64 builder
+(:mod:`twoel.integrals._exponential`: polynomials with integer coefficients in
+``a, b, c = 1/A, 1/B, 1/C``), only with other number types:
+
+``double-double``  NumPy :class:`~twoel.integrals.doubledouble.DD` arrays (~32 digits), used by the
+                   default mixed-precision refinement; a few times the float64 cost.
+``fixed point``    Python integers in NumPy object arrays.  The float64 exponents are exact binary
+                   fractions, so the pair sums ``A, B, C`` are exact integers at scale ``2^Q``;
+                   ``1/A`` is rounded once to ``P`` bits and everything after is exact integer
+                   arithmetic.  The matrices are then handed to python-flint ``arb_mat``
+                   (Johansson, IEEE Trans. Comput. 66, 1281 (2017)) at the working precision.
+
+All values carry the factor 16π²; matrices are ``<φ_p|O|(1 ± P12) φ_q>`` like
+:func:`twoel.matrices.primitive_operator_matrices` with
+``O`` = overlap, kinetic, nuclear (``1/r1 + 1/r2``, unit charge) and repulsion (``1/r12``).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ..errors import InputError
+from . import _exponential
+from .doubledouble import DD, two_sum
+
+NAMES = ("overlap", "kinetic", "nuclear", "repulsion")
+
+
+# ---------------------------------------------------------------------------------------------
+# double-double
+# ---------------------------------------------------------------------------------------------
+
+def _dd_sum4(x1, x2, y1, y2) -> DD:
+    s1, e1 = two_sum(x1, x2)
+    s2, e2 = two_sum(y1, y2)
+    return DD(s1, e1) + DD(s2, e2)
+
+
+def _dd_block(bra: np.ndarray, ket: np.ndarray):
+    """Double-double overlap, kinetic, nuclear, repulsion for bra rows × ket columns (÷16π²)."""
+    a1, b1, g1 = (bra[:, k][:, None] for k in range(3))
+    a2, b2, g2 = (ket[:, k][None, :] for k in range(3))
+    shape = (bra.shape[0], ket.shape[0])
+    a1, b1, g1, a2, b2, g2 = (np.broadcast_to(x, shape) for x in (a1, b1, g1, a2, b2, g2))
+    A = _dd_sum4(a1, a2, b1, b2)
+    B = _dd_sum4(b1, b2, g1, g2)
+    C = _dd_sum4(g1, g2, a1, a2)
+    ov, nu, re, k1, k2 = _exponential.zero_power_integrals(A.reciprocal(), B.reciprocal(), C.reciprocal())
+    c0 = DD(a1) * DD(a2) + DD(b1) * DD(b2) + DD(g1) * DD(g2) * 2
+    c1 = DD(a1) * DD(g2) + DD(a2) * DD(g1)
+    c2 = DD(b1) * DD(g2) + DD(b2) * DD(g1)
+    kinetic = (c0 * ov * 2 + c1 * k1 + c2 * k2) * DD(0.25)
+    return {"overlap": ov, "kinetic": kinetic, "nuclear": nu, "repulsion": re}
+
+
+def dd_matrices(exponents: np.ndarray, sign: int, block: int | None = None) -> dict[str, DD]:
+    """Double-double primitive matrices (full, symmetric) of a zero-power basis.
+
+    Parameters
+    ----------
+    exponents : ndarray, shape (N, 3)
+        ``(α, β, γ)`` in bohr⁻¹.
+    sign : int
+        Exchange sign (+1 singlet, -1 triplet).
+
+    Returns
+    -------
+    dict of :class:`DD`, each ``(N, N)``, including the factor 16π² (as a double-double).
+    """
+    exponents = np.asarray(exponents, dtype=float)
+    N = exponents.shape[0]
+    if block is None:  # ~16k pairs per block: temporaries stay in cache (measured optimum)
+        block = max(16, 16384 // max(N, 1))
+    swapped = exponents[:, [1, 0, 2]]
+    hi = {name: np.zeros((N, N)) for name in NAMES}
+    lo = {name: np.zeros((N, N)) for name in NAMES}
+    for start in range(0, N, block):
+        stop = min(start + block, N)
+        direct = _dd_block(exponents[start:stop], exponents[start:])
+        exchange = _dd_block(exponents[start:stop], swapped[start:])
+        for name in NAMES:
+            value = direct[name] + exchange[name] * sign
+            hi[name][start:stop, start:] = value.hi
+            lo[name][start:stop, start:] = value.lo
+    factor = DD(16.0 * (math.pi * math.pi), 16.0 * _PI_SQUARED_LO)
+    lower = np.tril_indices(N, -1)
+    out = {}
+    for name in NAMES:
+        h, l = hi[name], lo[name]
+        h[lower] = h.T[lower]
+        l[lower] = l.T[lower]
+        out[name] = DD(h, l) * factor
+    return out
+
+
+def _pi_squared_lo() -> float:
+    """``π² - fl(π·π)`` so that 16π² is a double-double (mpmath, at import)."""
+    import mpmath
+
+    with mpmath.workdps(40):
+        return float(mpmath.pi ** 2 - mpmath.mpf(math.pi * math.pi))
+
+
+#: π² = fl(π·π) + _PI_SQUARED_LO to double-double accuracy
+_PI_SQUARED_LO = _pi_squared_lo()
+
+
+def dd_hamiltonian(matrices: dict[str, DD], Z: float) -> DD:
+    """``T - Z·V_nuc + V_ee`` in double-double (``Z`` taken as exact)."""
+    return matrices["kinetic"] - matrices["nuclear"] * DD(float(Z)) + matrices["repulsion"]
+
+
+# ---------------------------------------------------------------------------------------------
+# fixed point (exact integers) -> arb
+# ---------------------------------------------------------------------------------------------
+
+def _exact_scale(exponents: np.ndarray) -> int:
+    """Smallest ``Q`` with every exponent an integer multiple of ``2^-Q`` (exact)."""
+    q = 0
+    for value in np.unique(exponents.ravel()):
+        if value == 0:
+            continue
+        _mantissa, exponent = math.frexp(float(value))
+        q = max(q, 53 - exponent)
+    return q
+
+
+def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
+    """Fixed-point integer matrices of a zero-power basis.
+
+    Parameters
+    ----------
+    exponents : ndarray, shape (N, 3)
+    sign : int
+    bits : int
+        Relative precision wanted for every entry (bits).
+
+    Returns
+    -------
+    (dict name -> list of lists of int, P) with ``entry / (16π²) = int · 2^-P``.
+
+    Notes
+    -----
+    The exponents are exact integers at scale ``2^Q``; ``1/A`` is rounded once to ``P`` fraction
+    bits and each product is truncated back to ``P`` bits (``((x*y) >> P)``, generated by
+    :func:`twoel.integrals.symbolic.zero_power_source`).  ``P`` exceeds ``bits`` by enough to
+    cover the smallest entries (``~A_max^-6``) and the truncations (a few units of ``2^-P``).
+    """
+    exponents = np.asarray(exponents, dtype=float)
+    N = exponents.shape[0]
+    Q = _exact_scale(exponents)
+    E = np.empty((N, 3), dtype=object)
+    for i in range(N):
+        for k in range(3):
+            E[i, k] = int(math.ldexp(float(exponents[i, k]), Q))
+    largest = max(2.0 * float(np.max(exponents[:, :2].sum(axis=1))),
+                  2.0 * float(np.max(exponents[:, 1:].sum(axis=1))), 1.0)
+    P = int(bits) + 7 * int(math.ceil(math.log2(largest))) + 16
+    rows, cols = np.triu_indices(N)
+    total = {}
+    one = 1 << (P + Q)
+    for exchanged, weight in ((False, 1), (True, sign)):
+        ket = E[:, [1, 0, 2]] if exchanged else E
+        a1, b1, g1 = E[rows, 0], E[rows, 1], E[rows, 2]
+        a2, b2, g2 = ket[cols, 0], ket[cols, 1], ket[cols, 2]
+        ra = one // (a1 + a2 + b1 + b2)
+        rb = one // (b1 + b2 + g1 + g2)
+        rc = one // (g1 + g2 + a1 + a2)
+        ov, nu, re, k1, k2 = _exponential.zero_power_integrals_fixed(ra, rb, rc, P)
+        c0 = a1 * a2 + b1 * b2 + 2 * g1 * g2
+        c1 = a1 * g2 + a2 * g1
+        c2 = b1 * g2 + b2 * g1
+        kinetic = (2 * c0 * ov + c1 * k1 + c2 * k2) >> (2 * Q + 2)
+        values = {"overlap": ov, "nuclear": nu, "repulsion": re, "kinetic": kinetic}
+        for name, value in values.items():
+            total[name] = value * weight if name not in total else total[name] + value * weight
+    out = {}
+    for name in NAMES:
+        full = np.empty((N, N), dtype=object)
+        full[rows, cols] = total[name]
+        full[cols, rows] = total[name]
+        out[name] = full.tolist()
+    return out, P
+
+
+def arb_matrices(exponents: np.ndarray, sign: int, bits: int) -> dict:
+    """``flint.arb_mat`` matrices (including 16π²) at the current ``flint.ctx.prec``."""
+    from flint import arb, arb_mat, fmpz_mat
+
+    fixed, scale = fixed_point_matrices(exponents, sign, bits)
+    factor = 16 * arb.pi() ** 2 * arb(2) ** (-scale)
+    return {name: arb_mat(fmpz_mat(rows)) * factor for name, rows in fixed.items()}
