@@ -92,3 +92,13 @@ def test_helium_like_ions_against_nist(Z):
 def test_helium_default_basis(state, measured_cm1, tol):
     d = compute_spectrum(2, state).to_dict()
     assert d["ionization_energy_cm1"] == pytest.approx(measured_cm1, abs=tol)
+
+
+@pytest.mark.slow
+def test_helium_ground_state_with_exponential_family():
+    # any correlated S basis works: the exponential family of twoel.solve (Korobov-type boxes)
+    import twoel
+
+    wf = twoel.solve(2, "1^1S", family="exponential", size=200).wavefunction
+    d = compute_spectrum(2, "1^1S", wavefunction=wf).to_dict()
+    assert d["ionization_energy_cm1"] == pytest.approx(198310.66637, abs=0.1)  # Kandula et al. 2011
