@@ -25,6 +25,7 @@ from .checking import check_energy, check_rows
 from .correlation import correlation_energy
 from .hartree_fock import hartree_fock_limit
 from .split_shell import split_shell_limit
+from .corrections.spectrum import compute_fine_structure, compute_spectrum
 
 __all__ = [
     "__version__", "solve", "solve_many", "EnergyResult", "Ion", "State", "family_names", "get_family",
@@ -34,4 +35,5 @@ __all__ = [
     "hartree_fock_limit", "split_shell_limit", "correlation_energy", "check_energy", "check_rows",
     "read_rows",
     "ConvergenceStudy", "run_study",
+    "compute_spectrum", "compute_fine_structure",
 ]

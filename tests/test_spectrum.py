@@ -1,0 +1,104 @@
+"""Corrected ionization energies against measured values (each source named beside it)."""
+
+import json
+
+import pytest
+
+from twoel.cli import main
+from twoel.corrections.spectrum import compute_spectrum
+from twoel.errors import UnsupportedError
+from twoel.units import convert_energy
+
+
+@pytest.fixture(scope="module")
+def helium_ground():
+    return compute_spectrum(2, "1^1S", quality="fast").to_dict()
+
+
+def test_helium_ground_state_ionization_energy(helium_ground):
+    d = helium_ground
+    # Kandula et al., Phys. Rev. A 84, 062512 (2011): 198 310.666 37(20) cm⁻¹
+    assert d["reference_cm1"] == pytest.approx(198310.66637, abs=1e-5)
+    assert d["ionization_energy_cm1"] == pytest.approx(198310.66637, abs=0.1)
+    assert set(d["contributions_cm1"]) >= {"nonrelativistic", "finite_mass", "alpha2", "alpha3"}
+    c = d["contributions_cm1"]
+    assert sum(c.values()) == pytest.approx(d["ionization_energy_cm1"], abs=1e-6)
+    # each correction is needed: the nonrelativistic residual is 34 cm⁻¹
+    assert abs(d["residual_nonrelativistic_cm1"]) > 30
+    assert abs(c["alpha3"]) > 1.0 and abs(c["alpha2"]) > 0.4
+    # NIST ASD value carried by mendeleev agrees with the measurement
+    assert d["nist_cm1"] == pytest.approx(198310.66637, abs=0.01)
+
+
+def test_cli_spectrum_json_contract(capsys):
+    assert main(["spectrum", "--Z", "He", "--state", "1^1S", "--quality", "fast", "--json"]) == 0
+    d = json.loads(capsys.readouterr().out)
+    for key in ("ionization_energy_cm1", "contributions_cm1", "reference_cm1", "residual"):
+        assert key in d
+    assert isinstance(d["contributions_cm1"], dict)
+    assert abs(d["residual"]) < 0.1
+
+
+def test_cli_spectrum_errors(capsys):
+    assert main(["spectrum", "--Z", "2", "--state", "2^1P"]) == 2
+    assert "2^3P" in capsys.readouterr().err
+    assert main(["spectrum", "--Z", "2.5"]) == 2
+    assert main(["spectrum", "--Z", "2", "--isotope", "99"]) == 2
+
+
+@pytest.mark.parametrize("state, measured_mhz, source", [
+    # G. Clausen et al., Phys. Rev. A 111, 012817 (2025): 1 152 842 742.708 2(55)(25) MHz
+    ("2^3S", 1152842742.7082, "Clausen 2025"),
+    # G. Clausen et al., Phys. Rev. Lett. 127, 093001 (2021): 960 332 040.491(32) MHz
+    pytest.param("2^1S", 960332040.491, "Clausen 2021", marks=pytest.mark.slow),
+])
+def test_helium_excited_ionization_energies(state, measured_mhz, source):
+    d = compute_spectrum(2, state, quality="fast").to_dict()
+    measured = convert_energy(measured_mhz, "mhz", "cm-1")
+    assert d["reference_cm1"] == pytest.approx(measured, abs=1e-6), source
+    assert d["ionization_energy_cm1"] == pytest.approx(measured, abs=0.05), source
+
+
+def test_unsupported_states():
+    with pytest.raises(UnsupportedError):
+        compute_spectrum(2, "3^1S", quality="fast")
+
+
+@pytest.mark.slow
+def test_hydrogen_anion_detachment():
+    d = compute_spectrum(1, "1^1S").to_dict()
+    # Lykke, Murray, Lineberger, Phys. Rev. A 43, 6104 (1991): 6082.99(15) cm⁻¹
+    assert d["reference_cm1"] == pytest.approx(6082.99)
+    assert d["ionization_energy_cm1"] == pytest.approx(6082.99, abs=0.15)
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("Z", range(3, 11))
+def test_helium_like_ions_against_nist(Z):
+    d = compute_spectrum(Z, "1^1S", quality="fast").to_dict()
+    ie = d["reference_cm1"]  # NIST ASD (Kramida et al.) via mendeleev
+    assert d["nist_cm1"] == ie
+    residual = abs(d["residual"])
+    nonrel = abs(d["residual_nonrelativistic_cm1"])
+    assert residual <= max(nonrel / 20, 1e-6 * ie)
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("state, measured_cm1, tol", [
+    ("1^1S", 198310.66637, 0.1),  # Kandula et al. 2011
+    ("2^3S", convert_energy(1152842742.7082, "mhz", "cm-1"), 0.05),  # Clausen et al. 2025
+    ("2^1S", convert_energy(960332040.491, "mhz", "cm-1"), 0.05),  # Clausen et al. 2021
+])
+def test_helium_default_basis(state, measured_cm1, tol):
+    d = compute_spectrum(2, state).to_dict()
+    assert d["ionization_energy_cm1"] == pytest.approx(measured_cm1, abs=tol)
+
+
+@pytest.mark.slow
+def test_helium_ground_state_with_exponential_family():
+    # any correlated S basis works: the exponential family of twoel.solve (Korobov-type boxes)
+    import twoel
+
+    wf = twoel.solve(2, "1^1S", family="exponential", size=200).wavefunction
+    d = compute_spectrum(2, "1^1S", wavefunction=wf).to_dict()
+    assert d["ionization_energy_cm1"] == pytest.approx(198310.66637, abs=0.1)  # Kandula et al. 2011

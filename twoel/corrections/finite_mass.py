@@ -1,0 +1,108 @@
+r"""Finite nuclear mass: reduced-mass scaling and mass polarization, first order and exact.
+
+With the nucleus of mass ``M`` (electron masses) and the electron coordinates relative to it,
+the Hamiltonian (Hartree units, m_e = 1) is
+
+.. math:: H_M = -\frac{1}{2μ}(∇_1^2 + ∇_2^2) - \frac{1}{M}∇_1·∇_2 + V,\qquad μ = \frac{M}{M+1}.
+
+Scaling ``r = r'/μ`` gives ``H_M = μ [H_∞(r') + (μ/M) p'_1·p'_2]``, so that to first order
+
+.. math:: E_M ≈ μ E_∞ + \frac{μ^2}{M} ⟨\mathbf{p}_1·\mathbf{p}_2⟩_∞ .
+
+:func:`finite_mass_energy` also solves ``H_M`` exactly in the basis with its exponents scaled by
+``μ`` (the exact image of the infinite-mass basis), with the matrix of ``p1·p2`` (derived with
+SymPy, :mod:`twoel.corrections.symbolic`) in the Hamiltonian.  Because every matrix is
+homogeneous in the exponents, this equals ``μ`` times the lowest roots of
+``H_∞ + (μ/M) P12`` in the unscaled basis, which is how it is computed.  The difference of
+the two is the second-order mass-polarization energy (reported).
+"""
+
+from __future__ import annotations
+
+from dataclasses import asdict, dataclass, replace
+
+import numpy as np
+
+from ..eigen import solve_generalized
+from ..errors import UnsupportedError
+from ..matrices import CorrelatedBasis, build_matrices
+from ._operator_terms import mass_polarization_terms
+from .integrals import basis_matrix
+
+
+@dataclass(frozen=True)
+class FiniteMassEnergy:
+    """Finite-mass energies of one state (Eh)."""
+
+    nuclear_mass_me: float
+    reduced_mass: float
+    energy_infinite_mass: float
+    p1_dot_p2: float
+    reduced_mass_shift: float
+    mass_polarization_first_order: float
+    energy_first_order: float
+    energy_exact: float
+    n_functions: int
+
+    @property
+    def second_order(self) -> float:
+        """``E_exact - E_first_order`` (Eh)."""
+        return self.energy_exact - self.energy_first_order
+
+    def to_dict(self) -> dict:
+        d = asdict(self)
+        d["second_order"] = self.second_order
+        return d
+
+
+def scaled_basis(basis: CorrelatedBasis, factor: float) -> CorrelatedBasis:
+    """The basis with every exponent multiplied by ``factor``."""
+    return replace(basis, exponents=basis.exponents * factor)
+
+
+def mass_polarization_matrix(basis: CorrelatedBasis) -> np.ndarray:
+    """Matrix of ``p1·p2 = -∇1·∇2`` in the (contracted) basis."""
+    return basis_matrix(basis, mass_polarization_terms, "p1_dot_p2")
+
+
+def finite_mass_energy(basis: CorrelatedBasis, Z: float, nuclear_mass_me: float, root: int = 0,
+                       energy_infinite_mass: float | None = None,
+                       p1_dot_p2: float | None = None, system=None,
+                       p12_matrix: np.ndarray | None = None) -> FiniteMassEnergy:
+    """First-order and exact finite-mass energies of root ``root`` in ``basis``.
+
+    Parameters
+    ----------
+    basis : CorrelatedBasis
+        A basis for the infinite-mass state (its exponents are scaled by μ for the exact solve).
+    Z : float
+    nuclear_mass_me : float
+        ``M / m_e``.
+    root : int
+        Index of the eigenvalue (0 = lowest of this symmetry).
+    energy_infinite_mass, p1_dot_p2 : float, optional
+        Infinite-mass eigenvalue and ``⟨p1·p2⟩`` if already known.
+    system, p12_matrix : optional
+        The basis' SystemMatrices and ``p1·p2`` matrix if already computed.
+    """
+    if not isinstance(basis, CorrelatedBasis):
+        raise UnsupportedError("the exact mass-polarization term is implemented for correlated S bases")
+    M = float(nuclear_mass_me)
+    if not M > 0:
+        raise UnsupportedError("the nuclear mass must be positive")
+    mu = M / (M + 1.0)
+    m = system if system is not None else build_matrices(basis)
+    P = p12_matrix if p12_matrix is not None else mass_polarization_matrix(basis)
+    if energy_infinite_mass is None or p1_dot_p2 is None:
+        eig = solve_generalized(m.hamiltonian(Z), m.overlap)
+        c = eig.vectors[:, root]
+        energy_infinite_mass = float(eig.values[root])
+        p1_dot_p2 = float(c @ P @ c / (c @ m.overlap @ c))
+    eig = solve_generalized(m.hamiltonian(Z) + (mu / M) * P, m.overlap)
+    exact = mu * float(eig.values[root])
+    first = mu * energy_infinite_mass + mu * mu / M * p1_dot_p2
+    return FiniteMassEnergy(
+        nuclear_mass_me=M, reduced_mass=mu, energy_infinite_mass=energy_infinite_mass,
+        p1_dot_p2=p1_dot_p2, reduced_mass_shift=(mu - 1.0) * energy_infinite_mass,
+        mass_polarization_first_order=mu * mu / M * p1_dot_p2, energy_first_order=first,
+        energy_exact=exact, n_functions=basis.size)

@@ -1,0 +1,344 @@
+r"""Ionization energies with finite-mass, α² and α³ corrections, itemized, against measured data.
+
+``I = E(ion 1s) - E(atom)``: each contribution is the difference of the same correction applied
+to the one-electron ion (:mod:`.one_electron`) and to the two-electron state:
+
+``nonrelativistic``  infinite-mass variational ionization energy;
+``finite_mass``      reduced mass and mass polarization (exact, in the Hamiltonian);
+``alpha2``           Breit–Pauli (atom, first order) vs Dirac 1s (ion, all orders);
+``alpha3``           leading QED (Araki–Sucher/Kabir–Salpeter vs the 1s Lamb shift);
+``alpha4_radiative`` the one-loop α(Zα)⁵-type term on both sides (a partial α⁴ term).
+
+Not included: the other mα⁶ (α⁴) terms, α³ recoil, nuclear size and polarizability.  For He
+1¹S these are a few 0.01 cm⁻¹ together; they grow as Z⁴–Z⁶ along the sequence.
+
+References (``data/measured_ionization_energies.csv``) are measured values for He and H⁻; the
+NIST Atomic Spectra Database ionization energies (A. Kramida, Yu. Ralchenko, J. Reader and NIST
+ASD Team, NIST Atomic Spectra Database, https://physics.nist.gov/asd) are read from the
+``mendeleev`` package for the ground states of He-like ions.
+"""
+
+from __future__ import annotations
+
+import time
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from .. import constants
+from .._version import __version__
+from ..eigen import solve_generalized
+from ..errors import InputError, NotBoundError, UnsupportedError
+from ..matrices import CorrelatedBasis
+from ..reference import all_references
+from ..results import Wavefunction
+from ..system import Ion, State
+from ..units import convert_energy, hartree_to
+from .finite_mass import finite_mass_energy
+from .masses import nuclear_mass
+from .one_electron import one_electron_ion
+from .operators import operator_values
+from .qed import qed_correction
+from .quadrature import quadrature_expectations
+from .relativistic import CAUTION_Z_ALPHA, breit_pauli_s
+
+MEASURED_TABLE = "measured_ionization_energies.csv"
+
+#: preset double-sector Hylleraas bases: state -> quality -> [(ω, α/unit, β/unit)], unit given
+_PRESETS = {
+    "ground": {"fast": [(8, 0.9, 1.1), (6, 2.25, 3.0)], "default": [(12, 0.9, 1.1), (10, 2.25, 3.0)]},
+    "ground_h": {"fast": [(10, 1.0, 0.3), (8, 1.2, 0.6)],
+                 "default": [(12, 0.95, 0.25), (10, 1.1, 0.5), (6, 2.5, 2.5)]},
+    "excited": {"fast": [(8, 1.0, 0.6), (6, 1.15, 1.4)], "default": [(12, 1.0, 0.6), (9, 1.15, 1.4)]},
+}
+QUALITIES = ("fast", "default")
+
+
+def _omega_terms(omega: int) -> list[tuple[int, int, int]]:
+    return [(i, j, k) for total in range(omega + 1) for k in range(total + 1)
+            for i in range(total - k + 1) for j in [total - k - i]]
+
+
+def preset_basis(Z: float, state: State, quality: str = "default") -> CorrelatedBasis:
+    """A fixed double-sector Hylleraas basis ``Σ r1^i r2^j r12^k e^{-α r1 - β r2}`` for the state.
+
+    Exponents scale with ``Z`` (inner electron) and ``Z - 1`` (outer electron of ``2S``); they
+    were chosen once for He and H⁻ (errors about 3e-11, 1e-8 (2¹S), 5e-11 (2³S), 2e-10 (H⁻) Eh).
+    """
+    if quality not in QUALITIES:
+        raise InputError(f"quality must be one of {', '.join(QUALITIES)}, got {quality!r}")
+    if state.L != 0 or state.n > 2:
+        raise UnsupportedError(f"no preset basis for {state.label}: the spectrum corrections support "
+                               "1^1S, 2^1S and 2^3S (S states up to n = 2)")
+    powers, exps = [], []
+    if state.n == 1:
+        key = "ground" if Z >= 1.5 else "ground_h"
+        for omega, a, b in _PRESETS[key][quality]:
+            scale = Z / 2 if key == "ground" else Z
+            t = _omega_terms(omega)
+            powers += t
+            exps += [(a * 2 * scale, b * 2 * scale, 0.0)] * len(t) if key == "ground" else [(a * Z, b * Z, 0.0)] * len(t)
+    else:
+        if Z < 1.5:
+            raise UnsupportedError(f"{state.label} is not bound for Z = {Z:g}")
+        for omega, a, b in _PRESETS["excited"][quality]:
+            t = _omega_terms(omega)
+            powers += t
+            exps += [(a * Z, b * (Z - 1.0), 0.0)] * len(t)
+    return CorrelatedBasis(np.array(powers), np.array(exps), sign=state.exchange_sign)
+
+
+def measured_reference(Z: float, state: State):
+    """The measured ionization energy in ``data/measured_ionization_energies.csv`` (or None)."""
+    for row in all_references(MEASURED_TABLE):
+        if row.Z == float(Z) and row.state == state.label and row.quantity == "ionization_energy":
+            return row
+    return None
+
+
+def nist_ionization_energy_ev(Z: int) -> float | None:
+    """NIST ASD ionization energy (eV) of the He-like ion of charge ``Z`` from ``mendeleev``."""
+    if Z < 2:
+        return None
+    try:
+        from mendeleev import element
+
+        value = element(int(Z)).ionenergies.get(int(Z) - 1)
+    except Exception:  # the data package is optional at run time
+        return None
+    return None if value is None else float(value)
+
+
+def _cm1(value_hartree: float) -> float:
+    return hartree_to(value_hartree, "cm-1")
+
+
+@dataclass(frozen=True)
+class SpectrumResult:
+    """Itemized ionization energy of one state (contributions in Eh; see ``to_dict`` for cm⁻¹)."""
+
+    Z: float
+    ion: str
+    state: str
+    isotope: str
+    nuclear_mass_me: float
+    contributions_hartree: dict
+    reference_cm1: float | None
+    reference_source: str | None
+    nist_cm1: float | None
+    atom: dict
+    threshold: dict
+    bethe_log: dict
+    cautions: tuple
+    notes: tuple
+    provenance: dict = field(default_factory=dict)
+
+    @property
+    def ionization_energy_hartree(self) -> float:
+        return float(sum(self.contributions_hartree.values()))
+
+    @property
+    def ionization_energy_cm1(self) -> float:
+        return _cm1(self.ionization_energy_hartree)
+
+    @property
+    def residual_cm1(self) -> float | None:
+        return None if self.reference_cm1 is None else self.ionization_energy_cm1 - self.reference_cm1
+
+    def to_dict(self) -> dict:
+        contributions_cm1 = {k: _cm1(v) for k, v in self.contributions_hartree.items()}
+        contributions_ev = {k: hartree_to(v, "ev") for k, v in self.contributions_hartree.items()}
+        nonrel = contributions_cm1["nonrelativistic"]
+        return {
+            "Z": self.Z, "ion": self.ion, "state": self.state, "isotope": self.isotope,
+            "nuclear_mass_me": self.nuclear_mass_me,
+            "ionization_energy_cm1": self.ionization_energy_cm1,
+            "ionization_energy_ev": hartree_to(self.ionization_energy_hartree, "ev"),
+            "ionization_energy_hartree": self.ionization_energy_hartree,
+            "contributions_cm1": contributions_cm1, "contributions_ev": contributions_ev,
+            "reference_cm1": self.reference_cm1, "reference_source": self.reference_source,
+            "residual": self.residual_cm1, "residual_cm1": self.residual_cm1,
+            "residual_nonrelativistic_cm1": None if self.reference_cm1 is None else nonrel - self.reference_cm1,
+            "nist_cm1": self.nist_cm1,
+            "nist_source": None if self.nist_cm1 is None else
+            "NIST Atomic Spectra Database ionization energy (Kramida et al.), via the mendeleev package",
+            "residual_nist_cm1": None if self.nist_cm1 is None else self.ionization_energy_cm1 - self.nist_cm1,
+            "atom": self.atom, "threshold": self.threshold, "bethe_log": self.bethe_log,
+            "cautions": list(self.cautions), "notes": list(self.notes), "provenance": self.provenance,
+        }
+
+
+def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mass_value: float | None = None,
+                     mass_unit: str = "u", quality: str = "default", wavefunction=None,
+                     quadrature_nodes: int = 40) -> SpectrumResult:
+    """Corrected ionization energy of a two-electron S state, itemized.
+
+    Parameters
+    ----------
+    Z : int
+        Nuclear charge (an element: the nuclear mass is needed).
+    state : str
+        ``1^1S``, ``2^1S`` or ``2^3S`` with the preset bases; any S state with ``wavefunction``.
+    isotope, nuclear_mass_value, mass_unit
+        See :func:`twoel.corrections.masses.nuclear_mass` (default: most abundant isotope).
+    quality : {"fast", "default"}
+        Size of the preset basis.
+    wavefunction : object with ``basis``/``coefficients``, optional
+        An infinite-mass wavefunction (e.g. ``twoel.solve(...).wavefunction``) instead of the preset.
+    quadrature_nodes : int
+        Gauss–Laguerre nodes for the orbit–orbit and Araki–Sucher quadrature.
+    """
+    started = time.perf_counter()
+    ion = Ion.parse(Z)
+    if ion.is_model:
+        raise InputError("corrections need a real element (integer Z) for the nuclear mass")
+    Zf = ion.Z
+    st = State.parse(state)
+    if st.L != 0:
+        raise UnsupportedError(f"{st.label}: the corrections are implemented for S states only; "
+                               "the 2^3P fine structure needs P-state wavefunctions")
+    mass = nuclear_mass(int(Zf), isotope=isotope, mass=nuclear_mass_value, mass_unit=mass_unit)
+    mu = mass.reduced_mass
+    if wavefunction is None:
+        basis = preset_basis(Zf, st, quality)
+        from ..matrices import build_matrices
+
+        m0 = build_matrices(basis)
+        eig = solve_generalized(m0.hamiltonian(Zf), m0.overlap)
+        if st.root >= eig.values.shape[0]:
+            raise UnsupportedError(f"the preset basis has too few functions for {st.label}")
+        energy = float(eig.values[st.root])
+        wavefunction = Wavefunction(basis, eig.vectors[:, st.root].copy())
+        root = st.root
+        basis_note = f"preset double-sector Hylleraas basis ({quality}), {basis.size} functions"
+    else:
+        basis = wavefunction.basis
+        root = None
+        energy = None
+        basis_note = f"given wavefunction, {basis.size} functions"
+    if not isinstance(basis, CorrelatedBasis):
+        raise UnsupportedError("the corrections need a correlated S-state basis wavefunction")
+    mats: dict = {}
+    values = operator_values(wavefunction, Zf, energy, matrices_out=mats)
+    energy = values.energy
+    if not energy < ion.threshold_hartree:
+        raise NotBoundError(f"{ion.label} {st.label}: energy {energy:.10f} Eh is not below the "
+                            f"threshold {ion.threshold_hartree:.10f} Eh in this basis")
+    if root is None:
+        m0 = mats["system"]
+        roots = solve_generalized(m0.hamiltonian(Zf), m0.overlap).values
+        root = int(np.argmin(np.abs(roots - energy)))
+    quad = quadrature_expectations(wavefunction, quadrature_nodes,
+                                   delta_r12=values.delta_r12_direct if st.is_singlet else 0.0)
+    fm = finite_mass_energy(basis, Zf, mass.nuclear_mass_me, root, energy, values.p1_dot_p2,
+                            system=mats["system"], p12_matrix=mats["p1_dot_p2"])
+    bp = breit_pauli_s(Zf, st, values, quad["orbit_orbit"], mu)
+    qed = qed_correction(Zf, st, values.delta_r1_regularized,
+                         values.delta_r12_regularized if st.is_singlet else 0.0,
+                         quad["araki_sucher"], mu)
+    thr = one_electron_ion(Zf, mu)
+    contributions = {
+        "nonrelativistic": thr.nonrelativistic_infinite_mass - energy,
+        "finite_mass": thr.finite_mass - (fm.energy_exact - energy),
+        "alpha2": thr.relativistic - bp.total,
+        "alpha3": thr.qed_alpha3 - qed.alpha3,
+        "alpha4_radiative": thr.qed_alpha4 - qed.alpha4_radiative,
+    }
+    reference = measured_reference(Zf, st)
+    ref_cm1 = None
+    ref_source = None
+    if reference is not None:
+        ref_cm1 = convert_energy(reference.value, reference.unit, "cm-1")
+        ref_source = reference.source
+    nist_cm1 = None
+    if st.n == 1 and Zf >= 2:
+        ev = nist_ionization_energy_ev(int(Zf))
+        if ev is not None:
+            nist_cm1 = convert_energy(ev, "ev", "cm-1")
+            if ref_cm1 is None:
+                ref_cm1 = nist_cm1
+                ref_source = ("NIST Atomic Spectra Database ionization energy (Kramida et al.), "
+                              "via the mendeleev package")
+    za = Zf * constants.FINE_STRUCTURE.value
+    cautions = []
+    if za > CAUTION_Z_ALPHA:
+        cautions.append(f"Zα = {za:.3f} > {CAUTION_Z_ALPHA}: first-order Breit–Pauli omits α⁴ terms of "
+                        f"relative size (Zα)² ≈ {za * za:.1e} of the relativistic correction; use fully "
+                        "relativistic (Dirac–Coulomb–Breit, all-order QED) methods for this ion")
+    if qed.bethe_log.approximate:
+        cautions.append("Bethe logarithm from the hydrogenic-scaling approximation (no published "
+                        "two-electron value in data/bethe_logarithms.csv)")
+    notes = (
+        basis_note,
+        f"nuclear mass: {mass.source}",
+        "not included: mα⁶ terms other than the one-loop radiative one, α³ recoil, nuclear size "
+        "and polarizability (a few 0.01 cm⁻¹ for He 1¹S)",
+        "α² terms use the regularized (global-operator) deltas and p⁴ = 4(E−V)² − 2p1²p2²",
+    )
+    atom = {
+        "energy_infinite_mass_hartree": energy,
+        "finite_mass": fm.to_dict(),
+        "operators": values.to_dict(),
+        "quadrature": quad,
+        "breit_pauli_hartree": bp.to_dict(),
+        "qed_hartree": qed.to_dict(),
+    }
+    provenance = {"package": "twoel", "version": __version__, "method":
+                  "variational nonrelativistic + first-order Breit–Pauli + α³ QED (itemized)",
+                  "constants": constants.CODATA_EDITION, "alpha": constants.FINE_STRUCTURE.value,
+                  "basis_functions": basis.size, "quadrature_nodes": quadrature_nodes,
+                  "elapsed_seconds": time.perf_counter() - started}
+    return SpectrumResult(
+        Z=Zf, ion=ion.label, state=st.label, isotope=mass.label, nuclear_mass_me=mass.nuclear_mass_me,
+        contributions_hartree=contributions, reference_cm1=ref_cm1, reference_source=ref_source,
+        nist_cm1=nist_cm1, atom=atom, threshold=thr.to_dict(), bethe_log=qed.bethe_log.to_dict(),
+        cautions=tuple(cautions), notes=notes, provenance=provenance)
+
+
+def compute_fine_structure(Z, state="2^3P", nodes: int = 32) -> dict:
+    """2³P_J fine-structure intervals (α² Breit–Pauli with the anomalous moment) vs measured.
+
+    Returns a JSON-ready dict with the intervals ``E(J=0) - E(J=1)`` and ``E(J=1) - E(J=2)`` in
+    MHz and cm⁻¹, the measured values (``data/measured_ionization_energies.csv``) and the
+    relative residuals.  The centroid ionization energy of P states is not computed (the
+    spin-independent α² and α³ terms are implemented for S states only).
+    """
+    from .p_states import helium_like_3p_fine_structure
+
+    started = time.perf_counter()
+    ion = Ion.parse(Z)
+    if ion.is_model:
+        raise InputError("fine structure needs a real element (integer Z)")
+    st = State.parse(state)
+    if st.L != 1 or st.multiplicity != 3 or st.n != 2:
+        raise UnsupportedError(f"{st.label}: among P states only the 2^3P fine structure is implemented")
+    fs = helium_like_3p_fine_structure(ion.Z, nodes)
+    out = {"Z": ion.Z, "ion": ion.label, "state": st.label,
+           "ionization_energy_cm1": None, "contributions_cm1": {}, "reference_cm1": None, "residual": None,
+           "energy_nonrelativistic_hartree": fs.energy, "fine_structure": {}, "cautions": [], "notes": [
+               "α² Breit–Pauli spin–orbit, spin–other-orbit and spin–spin terms with the electron "
+               "anomalous moment; α³ and higher corrections to the intervals are not included "
+               "(about 1e-4 relative for He)",
+               "centroid ionization energy of P states not computed (S-state corrections only)"]}
+    measured = {r.quantity: r for r in all_references(MEASURED_TABLE)
+                if r.Z == ion.Z and r.state == st.label}
+    for key, value in (("interval_01", fs.interval_01), ("interval_12", fs.interval_12)):
+        entry = {"mhz": hartree_to(value, "mhz"), "cm1": _cm1(value), "measured_mhz": None,
+                 "source": None, "relative_residual": None}
+        row = measured.get(f"fine_structure_{key}")
+        if row is not None:
+            m = convert_energy(row.value, row.unit, "mhz")
+            entry.update(measured_mhz=m, source=row.source, relative_residual=entry["mhz"] / m - 1.0)
+        out["fine_structure"][key] = entry
+    za = ion.Z * constants.FINE_STRUCTURE.value
+    if za > CAUTION_Z_ALPHA:
+        out["cautions"].append(f"Zα = {za:.3f} > {CAUTION_Z_ALPHA}: first-order Breit–Pauli fine structure "
+                               "is inadequate; use fully relativistic methods")
+    out["fine_structure"]["parameters_hartree"] = {"spin_orbit": fs.a_so, "spin_spin": fs.b_ss,
+                                                   "A_nuclear": fs.A_nuclear, "A_electron": fs.A_electron,
+                                                   "tensor": fs.tensor}
+    out["provenance"] = {"package": "twoel", "version": __version__, "method":
+                         "quadrature Galerkin 2^3P + first-order Breit–Pauli fine structure",
+                         "quadrature_nodes": nodes, "constants": constants.CODATA_EDITION,
+                         "elapsed_seconds": time.perf_counter() - started}
+    return out
