@@ -83,3 +83,19 @@ def test_console_entry_point_runs_as_module():
                           capture_output=True, text=True, timeout=120)
     assert proc.returncode == 0, proc.stderr
     assert json.loads(proc.stdout)["energy_hartree"] == pytest.approx(-2.75, abs=1e-12)
+
+
+def test_every_help_page_renders(capsys):
+    from twoel.cli import COMMAND_MODULES, build_parser
+
+    parser = build_parser()
+    with pytest.raises(SystemExit) as exc:
+        parser.parse_args(["--help"])
+    assert exc.value.code == 0
+    commands = parser._subparsers._group_actions[0].choices
+    assert {"energy", "series"} <= set(commands)
+    for name in commands:
+        with pytest.raises(SystemExit) as exc:
+            parser.parse_args([name, "--help"])
+        assert exc.value.code == 0, name
+    assert set(commands) <= set(COMMAND_MODULES)

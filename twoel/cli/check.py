@@ -9,7 +9,7 @@ from .common import charge, dumps_json, write_output
 
 NAME = "check"
 HELP = ("judge total energies from other programs: error vs the exact nonrelativistic energy and "
-        "the Hartree-Fock limit, % correlation recovered, flags")
+        "the Hartree-Fock limit, percentage of correlation recovered, flags")
 
 
 def add_parser(subparsers) -> None:
