@@ -223,8 +223,42 @@ def _coalescence(basis, d: np.ndarray) -> dict[str, float]:
     return out
 
 
+def _refinable(basis, repulsion: float) -> bool:
+    return (isinstance(basis, CorrelatedBasis) and basis.contraction is None and repulsion == 1.0
+            and not np.any(basis.powers) and basis.size <= 2000)
+
+
+def _refine(basis, mats, c: np.ndarray, Z: float) -> tuple[dict, float, float]:
+    """Refined eigenvector (mixed double-double / 128-bit step) and double-double moments."""
+    from .eigen import solve_generalized
+    from .integrals.doubledouble import DD, dd_dot, dd_matvec
+    from .integrals.precise import dd_matrices
+    from .precision import mixed_refine
+    from .properties_precise import refined_moments
+
+    S = mats["overlap"]
+    H = mats["kinetic"] - Z * mats["nuclear"] + mats["repulsion"]
+    eig = solve_generalized(H, S)
+    root = int(np.argmax(np.abs(eig.vectors.T @ (S @ c))))
+    refined = mixed_refine(basis.exponents, basis.sign, Z, eig, root)
+    vector = np.asarray(refined.vector, dtype=float)
+    moments = refined_moments(basis, vector)
+    dd = dd_matrices(basis.exponents, basis.sign)
+    x = DD(vector)
+
+    def quad(matrix):
+        value = dd_dot(x, dd_matvec(matrix, x))
+        return value
+
+    norm = quad(dd["overlap"]).reciprocal()
+    T = quad(dd["kinetic"]) * norm
+    V = (quad(dd["repulsion"]) - quad(dd["nuclear"]) * DD(Z)) * norm
+    virial = -(V * T.reciprocal())
+    return moments, float(virial.hi + virial.lo), float(refined.energy_hartree)
+
+
 def expectation_values(result_or_wavefunction, Z: float | None = None, *,
-                       repulsion: float = 1.0) -> ExpectationValues:
+                       repulsion: float = 1.0, refine: bool | None = None) -> ExpectationValues:
     """Expectation values and diagnostics of a state (see the module docstring).
 
     Parameters
@@ -237,6 +271,13 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
         Scale ``λ`` of ``1/r12`` in the Hamiltonian ``T - Z/r1 - Z/r2 + λ/r12`` that the
         regularized forms, ``⟨p1⁴⟩`` and the virial ratio assume (1 for the atom; 0 gives the
         hydrogenic model, whose exact eigenfunctions check the formulas).
+    refine : bool, optional
+        For zero-power exponential S bases: replace the float64 eigenvector by the refined one
+        (:func:`twoel.precision.mixed_refine`) and evaluate the radial moments and the virial
+        ratio in double-double (:mod:`twoel.properties_precise`).  Default: on for an
+        :class:`EnergyResult` of such a basis (the float64 eigenvector of a large basis is
+        ~1e-9 Eh off), off for a bare wave function.  The δ, gradient and ``⟨p1⁴⟩`` values stay
+        float64 evaluations of the stored vector.
 
     Returns
     -------
@@ -291,12 +332,24 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
         p1_fourth = 2.0 * e_minus_v_sq - v["lap1lap2"]
     else:
         p1_fourth = None
+    if refine is None:
+        refine = isinstance(result_or_wavefunction, EnergyResult) and _refinable(basis, repulsion)
+    virial_ratio = -V / T
+    if refine:
+        if not _refinable(basis, repulsion):
+            raise UnsupportedError("refinement needs a zero-power, uncontracted S basis and the "
+                                   "physical Hamiltonian (repulsion = 1)")
+        moments, virial_ratio, E_refined = _refine(basis, mats, c, Z)
+        v.update(moments)
+        notes.append(f"⟨r1⟩, ⟨r1²⟩, ⟨1/r1⟩, ⟨r12⟩, ⟨r12²⟩, ⟨1/r12⟩ and the virial ratio use the refined "
+                     f"eigenvector in double-double (refined energy {E_refined!r} Eh; float64 "
+                     f"vector {E!r} Eh); the other values use the float64 vector")
     return ExpectationValues(
         Z=Z, state=state, n_terms=int(basis.size), energy_hartree=E, kinetic_hartree=T,
         potential_hartree=V, r1=v["r1"], r1_squared=v["r1_squared"], inv_r1=v["inv_r1"],
         inv_r1_squared=v["inv_r1_squared"], r12=v["r12"], r12_squared=v["r12_squared"],
         inv_r12=v["inv_r12"], delta_r1=delta_r1, delta_r12=delta_r12,
         delta_r1_regularized=delta_r1_reg, delta_r12_regularized=delta_r12_reg,
-        grad1_dot_grad2=-v["grad12"], p1_fourth=p1_fourth, virial_ratio=-V / T,
+        grad1_dot_grad2=-v["grad12"], p1_fourth=p1_fourth, virial_ratio=virial_ratio,
         cusp_nucleus=cusp_nucleus, cusp_electron=cusp_electron, normalization=norm,
         notes=tuple(notes))
