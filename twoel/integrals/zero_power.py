@@ -132,7 +132,9 @@ def primitive_matrices(exponents: np.ndarray, sign: int, operators: dict) -> dic
         for name in operators:
             result[name][start:stop, start:] = direct[name] + sign * exchange[name]
     for name, upper in result.items():
-        lower = np.tril_indices(P, -1)
-        upper[lower] = upper.T[lower]
-        upper *= SIXTEEN_PI_SQUARED
+        # blocks filled the upper triangle (and both halves of the diagonal blocks): mirror it
+        full = np.triu(upper)
+        full += np.triu(upper, 1).T
+        full *= SIXTEEN_PI_SQUARED
+        result[name] = full
     return result
