@@ -28,3 +28,16 @@ def test_regularized_deltas_of_helium_to_1e7():
     assert values.inv_r12 == pytest.approx(INV_R12, rel=1e-9)
     # the direct forms converge more slowly: they must be further off than the regularized ones
     assert abs(values.delta_r12 - DELTA_R12) > abs(values.delta_r12_regularized - DELTA_R12)
+
+
+def test_properties_command_with_the_preset_basis(capsys):
+    import json
+
+    from twoel.cli import main
+
+    assert main(["properties", "--Z", "2", "--hylleraas-preset", "fast", "--json"]) == 0
+    record = json.loads(capsys.readouterr().out)
+    values = record["expectation_values"]
+    assert record["n_terms"] > 200 and record["state"] == "1^1S"
+    assert values["delta_r1_regularized"] == pytest.approx(DELTA_R1, rel=1e-7)
+    assert values["inv_r12"] == pytest.approx(INV_R12, rel=1e-9)

@@ -33,6 +33,9 @@ def add_parser(subparsers) -> None:
     p.add_argument("--state", default="1^1S", help="term symbol: 1^1S (default), 2^3S, 2^1P ...")
     p.add_argument("--family", default=None, help="trial family (default: exponential, else hylleraas)")
     p.add_argument("--size", type=positive_int, default=None, help="basis size")
+    p.add_argument("--hylleraas-preset", choices=("fast", "default"), default=None,
+                   help="use the fixed double-sector Hylleraas basis of the corrections instead "
+                        "(1^1S, 2^1S, 2^3S; its delta functions converge to ~1e-8)")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=run)
 
@@ -52,12 +55,36 @@ def summary_text(result, values) -> str:
     return "\n".join(lines) + "\n"
 
 
+def _preset_state(Z: float, state_text: str, quality: str):
+    """Solve in the preset double-sector Hylleraas basis; returns a result-like record and values."""
+    from types import SimpleNamespace
+
+    from ..corrections.spectrum import preset_basis
+    from ..eigen import solve_generalized
+    from ..properties import expectation_values
+    from ..results import Wavefunction
+    from ..system import Ion, State
+
+    ion, state = Ion(Z), State.parse(state_text)
+    basis = preset_basis(ion.Z, state, quality)
+    m = basis.matrices()
+    sol = solve_generalized(m.hamiltonian(ion.Z), m.overlap)
+    energy = float(sol.values[state.root])
+    result = SimpleNamespace(Z=ion.Z, ion=ion.label, state=state.label, size=None,
+                             family=f"hylleraas double-sector preset ({quality})",
+                             n_terms=basis.size, energy_hartree=energy)
+    return result, expectation_values(Wavefunction(basis, sol.vectors[:, state.root]), ion.Z)
+
+
 def run(args: argparse.Namespace) -> int:
     from ..properties import expectation_values
     from ..states import solve_state
 
-    result = solve_state(args.Z, args.state, size=args.size, family=args.family)
-    values = expectation_values(result)
+    if args.hylleraas_preset:
+        result, values = _preset_state(args.Z, args.state, args.hylleraas_preset)
+    else:
+        result = solve_state(args.Z, args.state, size=args.size, family=args.family)
+        values = expectation_values(result)
     if args.json:
         record = {"Z": result.Z, "ion": result.ion, "state": result.state, "family": result.family,
                   "size": result.size, "n_terms": result.n_terms,
