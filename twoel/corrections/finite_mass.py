@@ -11,7 +11,7 @@ Scaling ``r = r'/μ`` gives ``H_M = μ [H_∞(r') + (μ/M) p'_1·p'_2]``, so tha
 
 :func:`finite_mass_energy` also solves ``H_M`` exactly in the basis with its exponents scaled by
 ``μ`` (the exact image of the infinite-mass basis), with the matrix of ``p1·p2`` (derived with
-SymPy, :mod:`twoel.corrections.symbolic`) in the Hamiltonian.  Because every matrix is
+SymPy, :mod:`twoel.integrals.symbolic_states`) in the Hamiltonian.  Because every matrix is
 homogeneous in the exponents, this equals ``μ`` times the lowest roots of
 ``H_∞ + (μ/M) P12`` in the unscaled basis, which is how it is computed.  The difference of
 the two is the second-order mass-polarization energy (reported).
@@ -26,7 +26,7 @@ import numpy as np
 from ..eigen import solve_generalized
 from ..errors import UnsupportedError
 from ..matrices import CorrelatedBasis, build_matrices
-from ._operator_terms import mass_polarization_terms
+from .operators import mass_polarization_terms
 from .integrals import basis_matrix
 
 

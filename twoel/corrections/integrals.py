@@ -20,7 +20,7 @@ remaining smooth ``t`` integral is done by Gauss–Legendre quadrature.  The oth
 
 :func:`pair_matrix` evaluates any operator written as a list of
 ``((p, q, s), coefficient(bra, ket))`` integrand monomials (the form produced by the SymPy
-derivations in :mod:`twoel.corrections.symbolic`) between all primitive pairs of a
+derivations in :mod:`twoel.integrals.symbolic_states`) between all primitive pairs of a
 :class:`twoel.matrices.CorrelatedBasis`, including the exchanged ket.
 """
 

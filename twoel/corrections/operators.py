@@ -36,7 +36,17 @@ import numpy as np
 
 from ..errors import InputError, UnsupportedError
 from ..matrices import CorrelatedBasis, build_matrices
-from ._operator_terms import gradient_sum_terms, laplacian_product_terms, mass_polarization_terms
+from ..integrals._state_terms import s_grad11, s_grad12, s_grad22, s_lap1lap2
+
+#: ∇1χ·∇2χ' terms (p1·p2 up to sign convention of the caller) and ∇1²χ ∇2²χ' terms, derived
+#: once by SymPy in :mod:`twoel.integrals.symbolic_states`
+mass_polarization_terms = s_grad12
+laplacian_product_terms = s_lap1lap2
+
+
+def gradient_sum_terms(*args):
+    """Terms of ``∇1χ·∇1χ' + ∇2χ·∇2χ'`` (twice the kinetic integrand)."""
+    return s_grad11(*args) + s_grad22(*args)
 from .integrals import basis_matrices, contract
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
