@@ -2,9 +2,9 @@
 
 Usage (from the repository root)::
 
-    python3 tools/optimize_boxes_excited.py --Z 2 --state 2^3S --size 200 --evaluations 400 \
+    python3 -m twoel.basis.excited_tune --Z 2 --state 2^3S --size 200 --evaluations 400 \
         [--out best.json] [--write]
-    python3 tools/optimize_boxes_excited.py --merge best1.json best2.json ...
+    python3 -m twoel.basis.excited_tune --merge best1.json best2.json ...
 
 The energy of the requested root is minimized over the box bounds (log scale, Nelder-Mead),
 starting from the stored boxes (or the generic guess).  ``--write`` merges the result into
@@ -27,14 +27,13 @@ from pathlib import Path
 import numpy as np
 from scipy.optimize import minimize
 
-ROOT = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(ROOT))
+ROOT = Path(__file__).resolve().parent.parent.parent  # the checkout (data/ lives there)
 
-from twoel.basis import excited_boxes as xb  # noqa: E402
-from twoel.basis.exponential_excited import basis_from_boxes  # noqa: E402
-from twoel.eigen import solve_generalized  # noqa: E402
-from twoel.errors import TwoelError  # noqa: E402
-from twoel.system import Ion, State  # noqa: E402
+from . import excited_boxes as xb
+from .exponential_excited import basis_from_boxes
+from ..eigen import solve_generalized
+from ..errors import TwoelError
+from ..system import Ion, State
 
 
 def energy_of(boxes, ion, state, size):
