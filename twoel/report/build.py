@@ -58,12 +58,14 @@ DEMO_CONFIG = {
         "proposal on helium-like ions from H- to C4+. Before quoting energies they want to know "
         "how far a small Hylleraas basis (all terms r1^i r2^j r12^k with i + j + k <= 4) is from "
         "the published nonrelativistic limits, how the He energy converges with the basis, and "
-        "where the lowest S levels of He lie. This report answers those three questions."),
+        "where the lowest S and P levels of He lie (from an exponentially correlated basis of "
+        "200 terms). This report answers those three questions."),
     "series": {"Z": "1:6", "state": "1^1S", "family": "hylleraas", "size": 4},
     "convergence": {"Z": 2, "state": "1^1S", "family": "hylleraas", "sizes": [0, 1, 2, 3, 4, 5, 6]},
-    "levels": {"Z": 2, "family": "hylleraas",
-               "states": [{"state": "1^1S", "size": 4}, {"state": "2^3S", "size": 3},
-                          {"state": "2^1S", "size": 4}]},
+    "levels": {"Z": 2, "family": "exponential",
+               "states": [{"state": "1^1S", "size": 200}, {"state": "2^3S", "size": 200},
+                          {"state": "2^1S", "size": 200}, {"state": "2^3P", "size": 200},
+                          {"state": "2^1P", "size": 200}]},
 }
 
 _SOLVE_KEYS = ("state", "family", "size", "parameters", "optimize", "options")
@@ -497,7 +499,7 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
             frames["levels"] = frame
             page.heading(2, "Computed levels")
             files += _write_table(folder, "levels", frame, LEVEL_COLUMNS,
-                                  f"Computed S levels of {frame['ion'].iloc[0]}", page)
+                                  f"Computed levels of {frame['ion'].iloc[0]}", page)
             first = by_section["levels"][0]
             thresholds = {f"one-electron threshold -Z²/2 = {first.threshold_hartree:g} Eh": first.threshold_hartree}
             fig = plots.level_diagram_figure(frame["state"], frame["energy_hartree"], thresholds)
