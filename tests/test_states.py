@@ -168,7 +168,7 @@ def test_quasi_random_sequence_is_exact_integer_arithmetic():
     """frac(i(i+1)/2 · sqrt(2)) for i = 1..3 (exact closed form, computed with mpmath)."""
     import mpmath
 
-    from twoel.basis.excited_boxes import quasi_random
+    from twoel.basis.exponential import quasi_random  # the one sequence of all box bases
 
     mpmath.mp.dps = 40
     expected = [float(mpmath.frac(i * (i + 1) // 2 * mpmath.sqrt(2))) for i in (1, 2, 3)]

@@ -22,7 +22,6 @@ import json
 import math
 from dataclasses import dataclass
 from functools import lru_cache
-from math import isqrt
 
 import numpy as np
 
@@ -34,13 +33,9 @@ from .base import Parameter
 DATA_FILE = "exponential_boxes_excited.json"
 #: the schema shared with every ``data/exponential_boxes*.json`` file (see DEVELOPERS.md)
 SCHEMA = "twoel-exponential-boxes/1"
-PRIMES = (2, 3, 5)
 EDGE_KEYS = ("alpha_min", "alpha_max", "beta_min", "beta_max", "gamma_min", "gamma_max")
 #: floor of every box edge (bohr⁻¹): edges are optimized on a log scale and must stay > 0
 EDGE_FLOOR = 1e-4
-#: triplet S guard: smallest accepted (α - β) / (α + β)
-TRIPLET_SEPARATION = 0.05
-_SQRT_BITS = 64
 
 
 @dataclass(frozen=True)
@@ -60,56 +55,19 @@ class Box:
                 "gamma": list(self.gamma)}
 
 
-def quasi_random(count: int, prime: int, skip: int = 0) -> np.ndarray:
-    """Fractional parts ``frac(i(i+1)/2 · sqrt(prime))`` for ``i = skip+1 .. skip+count``.
-
-    Exact integer arithmetic (``sqrt(p)`` to 64 bits), so the exponents are platform independent.
-    """
-    root = isqrt(prime << (2 * _SQRT_BITS))
-    mask = (1 << _SQRT_BITS) - 1
-    values = np.empty(count)
-    for n, i in enumerate(range(skip + 1, skip + count + 1)):
-        values[n] = ((i * (i + 1) // 2 * root) & mask) / float(1 << _SQRT_BITS)
-    return values
-
-
-def split_counts(fractions, size: int) -> list[int]:
-    """Split ``size`` functions over boxes in proportion to ``fractions`` (cumulative rounding)."""
-    fractions = np.asarray(fractions, dtype=float)
-    if np.any(fractions <= 0):
-        raise InputError("box fractions must be positive")
-    cumulative = np.rint(np.cumsum(fractions) / fractions.sum() * size).astype(int)
-    return [int(c) for c in np.diff(np.concatenate([[0], cumulative]))]
-
-
 def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: bool = False) -> np.ndarray:
     """Exponents ``(α, β, γ)`` of ``size`` functions drawn from the boxes, shape (size, 3).
 
-    With ``guard_triplet`` (triplet S states, where ``(1 - P12)`` annihilates ``α = β``) each
-    point is ordered ``α > β`` and points with ``α - β < 0.05 (α + β)`` are skipped.
+    The same quasi-random sequence as the exponential family
+    (:func:`twoel.basis.exponential.box_exponents`).  With ``guard_triplet`` (triplet S states,
+    where ``(1 - P12)`` annihilates ``α = β``) each point is ordered ``α > β`` and nearly
+    symmetric points are skipped; P states need no guard.
     """
-    rows = []
-    for box, count in zip(boxes, split_counts([b.fraction for b in boxes], size)):
-        if count == 0:
-            continue
-        taken, skip = [], 0
-        while len(taken) < count:
-            want = count - len(taken) if not guard_triplet else 2 * (count - len(taken)) + 8
-            ua, ub, ug = (quasi_random(want, p, skip) for p in PRIMES)
-            skip += want
-            alpha = box.alpha[0] + (box.alpha[1] - box.alpha[0]) * ua
-            beta = box.beta[0] + (box.beta[1] - box.beta[0]) * ub
-            gamma = box.gamma[0] + (box.gamma[1] - box.gamma[0]) * ug
-            if guard_triplet:
-                hi, lo = np.maximum(alpha, beta), np.minimum(alpha, beta)
-                ok = (hi - lo) >= TRIPLET_SEPARATION * (hi + lo)
-                alpha, beta, gamma = hi[ok], lo[ok], gamma[ok]
-            taken.extend(zip(alpha.tolist(), beta.tolist(), gamma.tolist()))
-            if skip > 200 * count + 1000:
-                raise InputError("triplet box has almost no points with α ≠ β; separate the "
-                                 "α and β ranges")
-        rows.extend(taken[:count])
-    return np.array(rows, dtype=float)
+    from .exponential import box_exponents as sequence
+
+    if any(b.fraction <= 0 for b in boxes):
+        raise InputError("box fractions must be positive")
+    return sequence(boxes, size, -1 if guard_triplet else 1)
 
 
 @lru_cache(maxsize=None)

@@ -61,11 +61,24 @@ def basis_from_boxes(boxes, state: State, size: int):
     raise UnsupportedError(f"no exponential basis for L = {state.L} ({state.label})")
 
 
+def stored_parameters(ion: Ion, state: State) -> list[Parameter]:
+    """Box bounds (bohr⁻¹) as nonlinear parameters, starting at the stored values (any L)."""
+    boxes, _origin = xb.default_boxes(ion, state)
+    return xb.box_parameters(boxes)
+
+
+def build_from_stored(ion: Ion, state: State, size, values):
+    """Basis of ``size`` terms from the stored boxes with ``values`` overriding edges (any L)."""
+    size = xb.check_size(size, minimum=state.root + 1)
+    template, _origin = xb.default_boxes(ion, state)
+    boxes = xb.boxes_from_values(template, values or {})
+    return basis_from_boxes(boxes, state, size)
+
+
 def parameters(ion: Ion, state: State, size, options) -> list[Parameter]:
     """Box bounds (bohr⁻¹) as nonlinear parameters, starting at the stored values."""
     _check(state)
-    boxes, _origin = xb.default_boxes(ion, state)
-    return xb.box_parameters(boxes)
+    return stored_parameters(ion, state)
 
 
 def origin(ion: Ion, state: State) -> str:
@@ -75,7 +88,4 @@ def origin(ion: Ion, state: State) -> str:
 
 def build(ion: Ion, state: State, size, values, options) -> ExponentialSBasis:
     _check(state)
-    size = xb.check_size(size, minimum=state.root + 1)
-    template, _origin = xb.default_boxes(ion, state)
-    boxes = xb.boxes_from_values(template, values or {})
-    return basis_from_boxes(boxes, state, size)
+    return build_from_stored(ion, state, size, values)

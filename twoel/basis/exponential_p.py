@@ -16,9 +16,8 @@ from __future__ import annotations
 from ..errors import UnsupportedError
 from ..pbasis import PBasis
 from ..system import Ion, State
-from . import excited_boxes as xb
 from .base import Parameter
-from .exponential_excited import basis_from_boxes
+from .exponential_excited import build_from_stored, origin, stored_parameters  # noqa: F401
 
 
 def _check(state: State) -> None:
@@ -29,18 +28,9 @@ def _check(state: State) -> None:
 def parameters(ion: Ion, state: State, size, options) -> list[Parameter]:
     """Box bounds (bohr⁻¹) as nonlinear parameters, starting at the stored values."""
     _check(state)
-    boxes, _origin = xb.default_boxes(ion, state)
-    return xb.box_parameters(boxes)
-
-
-def origin(ion: Ion, state: State) -> str:
-    """``"stored"``, ``"scaled"`` (from the helium boxes) or ``"generic"``."""
-    return xb.default_boxes(ion, state)[1]
+    return stored_parameters(ion, state)
 
 
 def build(ion: Ion, state: State, size, values, options) -> PBasis:
     _check(state)
-    size = xb.check_size(size, minimum=state.root + 1)
-    template, _origin = xb.default_boxes(ion, state)
-    boxes = xb.boxes_from_values(template, values or {})
-    return basis_from_boxes(boxes, state, size)
+    return build_from_stored(ion, state, size, values)
