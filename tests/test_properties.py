@@ -28,9 +28,9 @@ HE_GROUND = {"r1": 0.929472294874, "r1_squared": 1.193482995019, "inv_r1": 1.688
              "delta_r12": 0.106345371, "p1_p2": 0.159069475}
 
 #: a 3-box test basis for He 1¹S (edges from a short optimization; test fixture only)
-GROUND_BOXES = [xb.Box(1 / 3, (0.766, 2.536), (0.817, 2.538), (0.077, 0.776)),
-                xb.Box(1 / 3, (0.98, 6.58), (0.98, 5.45), (0.238, 3.10)),
-                xb.Box(1 / 3, (2.17, 18.0), (0.35, 9.68), (0.022, 4.08))]
+GROUND_BOXES = [xb.Box(alpha=(0.766, 2.536), beta=(0.817, 2.538), gamma=(0.077, 0.776), fraction=1 / 3),
+                xb.Box(alpha=(0.98, 6.58), beta=(0.98, 5.45), gamma=(0.238, 3.10), fraction=1 / 3),
+                xb.Box(alpha=(2.17, 18.0), beta=(0.35, 9.68), gamma=(0.022, 4.08), fraction=1 / 3)]
 
 
 def _ground_state(size):

@@ -29,30 +29,10 @@ from ..errors import InputError, UnsupportedError
 from ..reference import data_root
 from ..system import Ion, State
 from .base import Parameter
+# one schema, one box type and one edge naming for every data/exponential_boxes*.json file
+from .exponential_boxes import EDGE_FLOOR, EDGE_KEYS, SCHEMA, Box  # noqa: F401
 
 DATA_FILE = "exponential_boxes_excited.json"
-#: the schema shared with every ``data/exponential_boxes*.json`` file (see DEVELOPERS.md)
-SCHEMA = "twoel-exponential-boxes/1"
-EDGE_KEYS = ("alpha_min", "alpha_max", "beta_min", "beta_max", "gamma_min", "gamma_max")
-#: floor of every box edge (bohr⁻¹): edges are optimized on a log scale and must stay > 0
-EDGE_FLOOR = 1e-4
-
-
-@dataclass(frozen=True)
-class Box:
-    """One box ``[α_min, α_max] × [β_min, β_max] × [γ_min, γ_max]`` (bohr⁻¹) and its fraction."""
-
-    fraction: float
-    alpha: tuple[float, float]
-    beta: tuple[float, float]
-    gamma: tuple[float, float]
-
-    def bounds(self) -> list[float]:
-        return [*self.alpha, *self.beta, *self.gamma]
-
-    def to_dict(self) -> dict:
-        return {"fraction": self.fraction, "alpha": list(self.alpha), "beta": list(self.beta),
-                "gamma": list(self.gamma)}
 
 
 def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: bool = False) -> np.ndarray:
@@ -99,7 +79,8 @@ def stored_entry(Z: float, state: State) -> dict | None:
 
 
 def boxes_from_entry(entry: dict) -> list[Box]:
-    return [Box(float(b["fraction"]), tuple(b["alpha"]), tuple(b["beta"]), tuple(b["gamma"]))
+    return [Box(alpha=tuple(b["alpha"]), beta=tuple(b["beta"]), gamma=tuple(b["gamma"]),
+                fraction=float(b["fraction"]))
             for b in entry["boxes"]]
 
 
@@ -116,8 +97,8 @@ def default_boxes(ion: Ion, state: State) -> tuple[list[Box], str]:
             fa = ion.Z / 2 if b.alpha[1] > 1.2 else max(ion.Z - 1.0, 0.05)
             fb = ion.Z / 2 if b.beta[1] > 1.2 else max(ion.Z - 1.0, 0.05)
             fg = ion.Z / 2 if inner else 1.0
-            boxes.append(Box(b.fraction, (b.alpha[0] * fa, b.alpha[1] * fa), (b.beta[0] * fb, b.beta[1] * fb),
-                             (b.gamma[0] * fg, b.gamma[1] * fg)))
+            boxes.append(Box(alpha=(b.alpha[0] * fa, b.alpha[1] * fa), beta=(b.beta[0] * fb, b.beta[1] * fb),
+                             gamma=(b.gamma[0] * fg, b.gamma[1] * fg), fraction=b.fraction))
         return boxes, "scaled"
     return generic_boxes(ion, state), "generic"
 
@@ -127,10 +108,10 @@ def generic_boxes(ion: Ion, state: State) -> list[Box]:
     Z, n = ion.Z, state.n
     outer = max(Z - 1.0, 0.1) / n
     if state.L == 0:
-        return [Box(0.5, (0.6 * Z, 2.0 * Z), (0.6 * Z, 2.0 * Z), (0.0, 0.6)),
-                Box(0.5, (0.8 * Z, 1.3 * Z), (0.3 * outer, 2.0 * outer), (0.0, 0.3))]
-    return [Box(0.5, (0.3 * outer, 2.0 * outer), (0.8 * Z, 1.3 * Z), (0.0, 0.3)),
-            Box(0.5, (0.5 * outer, 3.0 * outer), (0.5 * Z, 2.0 * Z), (0.0, 0.8))]
+        return [Box(alpha=(0.6 * Z, 2.0 * Z), beta=(0.6 * Z, 2.0 * Z), gamma=(0.0, 0.6), fraction=0.5),
+                Box(alpha=(0.8 * Z, 1.3 * Z), beta=(0.3 * outer, 2.0 * outer), gamma=(0.0, 0.3), fraction=0.5)]
+    return [Box(alpha=(0.3 * outer, 2.0 * outer), beta=(0.8 * Z, 1.3 * Z), gamma=(0.0, 0.3), fraction=0.5),
+            Box(alpha=(0.5 * outer, 3.0 * outer), beta=(0.5 * Z, 2.0 * Z), gamma=(0.0, 0.8), fraction=0.5)]
 
 
 def box_parameters(boxes: list[Box]) -> list[Parameter]:
@@ -141,7 +122,7 @@ def box_parameters(boxes: list[Box]) -> list[Parameter]:
     """
     params = []
     for number, box in enumerate(boxes, start=1):
-        for name, value in zip(EDGE_KEYS, box.bounds()):
+        for name, value in zip(EDGE_KEYS, box.edges()):
             params.append(Parameter(f"box{number}_{name}", max(float(value), EDGE_FLOOR), EDGE_FLOOR, 1e4))
     return params
 
@@ -151,13 +132,14 @@ def boxes_from_values(template: list[Box], values: dict[str, float]) -> list[Box
     out = []
     for number, box in enumerate(template, start=1):
         bounds = [float(values.get(f"box{number}_{name}", default))
-                  for name, default in zip(EDGE_KEYS, box.bounds())]
+                  for name, default in zip(EDGE_KEYS, box.edges())]
         for lo, hi, what in ((0, 1, "alpha"), (2, 3, "beta"), (4, 5, "gamma")):
             if not (math.isfinite(bounds[lo]) and math.isfinite(bounds[hi])):
                 raise InputError(f"box {number} {what} bounds must be finite")
             if bounds[lo] > bounds[hi]:
                 bounds[lo], bounds[hi] = bounds[hi], bounds[lo]
-        out.append(Box(box.fraction, (bounds[0], bounds[1]), (bounds[2], bounds[3]), (bounds[4], bounds[5])))
+        out.append(Box(alpha=(bounds[0], bounds[1]), beta=(bounds[2], bounds[3]), gamma=(bounds[4], bounds[5]),
+                       fraction=box.fraction))
     return out
 
 

@@ -46,7 +46,7 @@ def energy_of(boxes, ion, state, size):
 def _entry(boxes, ion, state, size, evaluations):
     r6 = lambda pair: tuple(round(float(v), 6) for v in pair)  # noqa: E731
     total = sum(b.fraction for b in boxes)
-    boxes = [xb.Box(round(b.fraction / total, 6), r6(b.alpha), r6(b.beta), r6(b.gamma)) for b in boxes]
+    boxes = [xb.Box(alpha=r6(b.alpha), beta=r6(b.beta), gamma=r6(b.gamma), fraction=round(b.fraction / total, 6)) for b in boxes]
     e, _eig = energy_of(boxes, ion, state, size)
     return {"Z": ion.Z, "state": state.label, "optimized_size": size, "energy_hartree": e,
             "method": f"Nelder-Mead on log box edges ({evaluations} evaluations max), "
@@ -103,13 +103,14 @@ def main(argv=None):
     nb = len(start)
 
     # shares enter as log-log to stay positive; keep it simple
-    x0 = np.concatenate([np.log(np.concatenate([np.maximum(b.bounds(), 1e-3) for b in start])),
+    x0 = np.concatenate([np.log(np.concatenate([np.maximum(b.edges(), 1e-3) for b in start])),
                          np.log(np.log(np.array(shares) + 1.0))])
 
     def unpack(x):
         bounds = np.exp(x[: 6 * nb]).reshape(nb, 6)
         sh = np.exp(np.exp(x[6 * nb:])) - 1.0
-        return [xb.Box(float(max(s, 1e-3)), tuple(sorted(b[0:2])), tuple(sorted(b[2:4])), tuple(sorted(b[4:6])))
+        return [xb.Box(alpha=tuple(sorted(b[0:2])), beta=tuple(sorted(b[2:4])), gamma=tuple(sorted(b[4:6])),
+                       fraction=float(max(s, 1e-3)))
                 for b, s in zip(bounds, sh)]
 
     best = [np.inf, None]

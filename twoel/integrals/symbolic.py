@@ -192,15 +192,20 @@ def _product_code(expr: sp.Expr) -> str:
     if expr.is_Mul:
         return "*".join(_wrap(arg) for arg in sorted(expr.args, key=sp.default_sort_key))
     if expr.is_Add:
-        text = ""
-        for arg in sorted(expr.args, key=sp.default_sort_key):
-            piece = _product_code(arg)
-            if piece.startswith("-"):
-                text += (" - " + piece[1:]) if text else piece
-            else:
-                text += (" + " + piece) if text else piece
-        return text
+        return _sum_code(expr, _product_code)
     raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover - derivation guard
+
+
+def _sum_code(expr: sp.Expr, render) -> str:
+    """Render the terms of a sum in canonical order, folding leading minus signs into ``-``."""
+    text = ""
+    for arg in sorted(expr.args, key=sp.default_sort_key):
+        piece = render(arg)
+        if piece.startswith("-"):
+            text += (" - " + piece[1:]) if text else piece
+        else:
+            text += (" + " + piece) if text else piece
+    return text
 
 
 def _wrap(expr: sp.Expr) -> str:
@@ -237,14 +242,7 @@ def _fixed_code(expr: sp.Expr) -> str:
             return f"-{text}"
         return f"{int(coefficient)}*{text}"
     if expr.is_Add:
-        text = ""
-        for arg in sorted(expr.args, key=sp.default_sort_key):
-            piece = _fixed_code(arg)
-            if piece.startswith("-"):
-                text += (" - " + piece[1:]) if text else piece
-            else:
-                text += (" + " + piece) if text else piece
-        return text
+        return _sum_code(expr, _fixed_code)
     raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover
 
 
