@@ -163,10 +163,12 @@ def test_energies_decrease_with_size_and_stay_above_the_exact_value():
     assert energies[0] > energies[1] > energies[2] > HE_GROUND  # Rayleigh-Ritz upper bounds
 
 
-def test_helium_ground_state_float64():
-    r = twoel.solve(2, "1^1S", "exponential", 200, error_bar=False)
-    assert HE_GROUND < r.energy_hartree < HE_GROUND + 1e-10
-    assert r.energy_hartree_text.startswith("-2.9037243770")
+def test_helium_ground_state_default_precision():
+    """Default size and precision (float64 solve plus the mixed step): 11 digits (measured 2.6e-12)."""
+    r = twoel.solve(2, "1^1S", "exponential", error_bar=False)
+    assert r.size == 300
+    assert HE_GROUND < r.energy_hartree < HE_GROUND + 1e-11
+    assert r.energy_hartree_text.startswith("-2.90372437703")
 
 
 def test_helium_2_3S_lowest_triplet_root():

@@ -23,7 +23,8 @@ from .eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
 from .errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from .matrices import CorrelatedBasis
 from .optimize import minimize_energy
-from .precision import check_precision, extended_refine, mixed_refine, truncate_text
+from .precision import (check_precision, extended_refine, mixed_refine, starting_condition_digits,
+                        truncate_text)
 from .reference import lookup
 from .results import EnergyResult, Wavefunction
 from .system import Ion, State
@@ -59,7 +60,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
           options: dict | None = None, precision: str = "float64",
           drop_threshold: float = DEFAULT_DROP_THRESHOLD,
           progress: Callable[[int, float], None] | None = None, digits: int | None = None,
-          error_bar: bool | None = None) -> EnergyResult:
+          error_bar: bool | None = None,
+          on_stage: Callable[[str], None] | None = None) -> EnergyResult:
     """Variational energy of one state of a two-electron ion.
 
     Parameters
@@ -94,6 +96,9 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         Estimate the basis-truncation error from two smaller nested bases (``N/2``, ``N/√2``;
         :mod:`twoel.convergence`) and fill ``error_bar_hartree``.  Default: on for the
         exponential family, off otherwise.
+    on_stage : callable, optional
+        ``on_stage(text)`` is called as each long step begins (float64 solve, refinements, the
+        smaller bases of the error bar), so a caller can show where a minutes-long run is.
 
     Returns
     -------
@@ -135,6 +140,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         values, _best, opt = minimize_energy(energy, params, progress=progress)
         record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
                   "message": opt.message, "initial": opt.initial, "size": tune_size}
+    stage = on_stage or (lambda _text: None)
+    stage(f"float64 build and solve ({fam.name}" + (f", size {size})" if size is not None else ")"))
     basis, matrices, eig = _evaluate(fam, ion, state, size, values, options, drop_threshold)
     energy_value = float(eig.values[state.root])
     kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
@@ -157,11 +164,11 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         raise UnsupportedError("precision='extended' needs the exponential family (S states)")
     bar = None
     if high:
-        refined = _refine(basis, ion, state, eig, precision, digit_target)
+        refined = _refine(basis, ion, state, eig, precision, digit_target, stage=stage)
         energy_value = refined.energy_hartree
         if error_bar is None or error_bar:
             bar = _error_bar(fam, ion, state, size, values, options, drop_threshold, precision,
-                             digit_target, refined)
+                             digit_target, refined, stage)
     warn_list, notes = [], []
     if ion.note:
         notes.append(ion.note)
@@ -236,30 +243,49 @@ def _zero_power(basis) -> bool:
     return isinstance(basis, CorrelatedBasis) and basis.contraction is None and not np.any(basis.powers)
 
 
-def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, digits):
-    """Mixed (default) or extended-precision energy of a zero-power basis."""
-    mixed = mixed_refine(basis.exponents, basis.sign, ion.Z, eig, state.root)
+def _target_error(refined, digits: int) -> float:
+    """Arithmetic error (Eh) small enough for ``digits`` significant digits of ``refined``."""
+    return 0.1 * 10.0 ** (-digits) * abs(refined.energy_hartree)
+
+
+def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, digits, start=None,
+            stage=None):
+    """Mixed (default) or extended-precision energy of a zero-power basis.
+
+    ``start`` is a mixed refinement of the same basis already at hand (it is not repeated).
+    """
+    stage = stage or (lambda _text: None)
+    if start is None:
+        stage(f"mixed-precision step, N = {basis.size}")
+    mixed = start if start is not None else mixed_refine(basis.exponents, basis.sign, ion.Z, eig,
+                                                        state.root)
     if precision != "extended":
         return mixed
-    n = basis.size
-    condition_digits = (np.log10(eig.condition_number) if eig.n_dropped == 0
-                        and np.isfinite(eig.condition_number) else 16.0 + 8.0 * np.log10(max(n, 100) / 100.0))
+    condition_digits = starting_condition_digits(basis.size, eig.condition_number, eig.n_dropped,
+                                                 mixed.lost_digits)
     upper = eig.values[state.root + 1] if state.root + 1 < len(eig.values) else np.inf
+    stage(f"extended precision, N = {basis.size} ({digits} digits wanted; exact assembly, then arb "
+          "inverse iteration)")
     return extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
                            digits, float(condition_digits),
                            gap=float(min(upper - mixed.energy_hartree, 1.0)))
 
 
-def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision, digits, refined) -> dict:
+def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision, digits, refined,
+               stage) -> dict:
     """Truncation error from the nested smaller bases ``N/2`` and ``N/√2`` (see twoel.convergence)."""
     from .convergence import error_bar_sizes, estimate_tail
 
     texts, numerical = [], [refined.numerical_error_hartree]
     sizes = error_bar_sizes(size)
     for n in sizes:
-        # the smaller bases only feed differences: the mixed refinement (~1e-17 Eh) suffices
+        # the smaller bases only feed differences: the mixed refinement suffices unless its
+        # arithmetic bound is coarser than the digit target, then they are refined like size
+        stage(f"error bar: smaller basis N = {n}")
         b, _m, e = _evaluate(fam, ion, state, n, values, options, drop_threshold)
-        aux = _refine(b, ion, state, e, "float64", None)
+        aux = _refine(b, ion, state, e, "float64", None, stage=stage)
+        if precision == "extended" and aux.numerical_error_hartree > _target_error(aux, digits):
+            aux = _refine(b, ion, state, e, "extended", digits, start=aux, stage=stage)
         texts.append(aux.text)
         numerical.append(aux.numerical_error_hartree)
     texts.append(refined.text)

@@ -66,6 +66,9 @@ class RefinedEnergy:
         The successive Rayleigh-quotient energies minus the last one (Eh).
     seconds : dict
         Wall time of the assembly and of the solve (s).
+    lost_digits : float
+        Decimal digits the arithmetic lost: ``log10`` of the arb radius of the energy over one
+        unit in the last place of the working precision (a measured ``log10 cond``).
     """
 
     energy_hartree: float
@@ -76,12 +79,13 @@ class RefinedEnergy:
     history: tuple = ()
     seconds: dict = field(default_factory=dict)
     vector: object = field(default=None, compare=False, repr=False)
+    lost_digits: float = 0.0
 
     def to_dict(self) -> dict:
         return {"energy_hartree": self.energy_hartree, "energy_hartree_text": self.text,
                 "numerical_error_hartree": self.numerical_error_hartree, "method": self.method,
                 "working_bits": self.working_bits, "history": list(self.history),
-                "seconds": dict(self.seconds)}
+                "seconds": dict(self.seconds), "lost_digits": self.lost_digits}
 
 
 def check_precision(precision: str, digits: int | None) -> int | None:
@@ -190,7 +194,16 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
     t2 = time.perf_counter()
     text = _clean_arb_text(last.mid().str(32, radius=False))
     return RefinedEnergy(float(last.mid()), text, error, "double-double matrices + 128-bit inverse iteration",
-                         MIXED_BITS, history, {"assembly": t1 - t0, "solve": t2 - t1}, vector=vector)
+                         MIXED_BITS, history, {"assembly": t1 - t0, "solve": t2 - t1}, vector=vector,
+                         lost_digits=_lost_digits(last, MIXED_BITS))
+
+
+def _lost_digits(energy, bits: int) -> float:
+    """``log10(radius / ulp)`` of an arb energy computed at ``bits`` (0 when exact)."""
+    radius, mid = float(energy.rad()), abs(float(energy.mid()))
+    if not (radius > 0 and mid > 0):
+        return 0.0
+    return max(0.0, math.log10(radius / (mid * 2.0 ** -bits)))
 
 
 def _one_step_error(eig, root: int, energy) -> float:
@@ -203,6 +216,23 @@ def _one_step_error(eig, root: int, energy) -> float:
 
 #: working precision of the mixed refinement (the double-double matrices carry ~106 bits)
 MIXED_BITS = 128
+
+
+def starting_condition_digits(size: int, condition_number: float, n_dropped: int,
+                              mixed_lost_digits: float = 0.0) -> float:
+    """First guess of ``log10 cond`` for the extended precision of a basis of ``size`` terms.
+
+    The float64 condition number when no direction was dropped; else an empirical growth law
+    ``16 + 8 log10(N/100)``.  The 128-bit mixed step measured what its own arithmetic lost (arb
+    radius, :attr:`RefinedEnergy.lost_digits`); the exact assembly loses more (He: +1 to +3
+    digits at N = 400-800, up to ~+9 at N = 1600), so that measurement counts with a margin of
+    10 digits.  Too low a guess is caught by the radius check but costs a second assembly.
+    """
+    if n_dropped == 0 and math.isfinite(condition_number):
+        guess = math.log10(max(condition_number, 1.0))
+    else:
+        guess = 16.0 + 8.0 * math.log10(max(size, 100) / 100.0)
+    return max(guess, mixed_lost_digits + 10.0)
 
 
 def working_bits(digits: int, condition_digits: float) -> int:
@@ -273,7 +303,7 @@ def extended_refine(exponents: np.ndarray, sign: int, Z: float, start_energy: fl
             raise ConvergenceError("extended-precision inverse iteration did not converge")
         text = _clean_arb_text(last.mid().str(max(digits + 8, 24), radius=False))
         return RefinedEnergy(float(last.mid()), text, error, "arb inverse iteration", bits,
-                             history, seconds, vector=vector)
+                             history, seconds, vector=vector, lost_digits=_lost_digits(last, bits))
     finally:
         ctx.prec = old_prec
 

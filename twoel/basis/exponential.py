@@ -113,7 +113,7 @@ class ExponentialFamily(TrialFamily):
     name = "exponential"
     summary = "Σ (1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12), quasi-random exponents in boxes (Korobov 2000)"
     size_meaning = "N, the number of exponential terms"
-    default_size = 250
+    default_size = 300
     min_size = 4
     max_size = 3000
     optimize_by_default = False
@@ -121,6 +121,9 @@ class ExponentialFamily(TrialFamily):
     supported_L = (0, 1)
     #: basis size on which ``--optimize`` tunes the box edges when the stored set gives none
     optimization_default_size = 120
+    #: largest size ``--optimize`` tunes at: the float64 energy it minimizes stops seeing the
+    #: basis near 1e-10 Eh anyway, and each evaluation costs O(N³)
+    optimization_max_size = 400
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
         if state.L == 1:
@@ -142,7 +145,7 @@ class ExponentialFamily(TrialFamily):
             return size
         box_set = stored.box_set_for(ion, state)
         target = box_set.optimized_size or self.optimization_default_size
-        return min(size, target)
+        return min(size, target, self.optimization_max_size)
 
     def provenance(self, ion: Ion, state: State) -> dict:
         """Where the box edges of ``(ion, state)`` come from (JSON-ready)."""

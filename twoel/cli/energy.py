@@ -58,11 +58,11 @@ def summary_text(result) -> str:
 
 def run(args: argparse.Namespace) -> int:
     from .. import solve
-    from .progress import optimizer_progress
+    from .progress import optimizer_progress, stage_reporter
 
     with optimizer_progress(enabled=not args.quiet and not args.json) as progress:
         result = solve(args.Z, progress=progress, precision=args.precision, digits=args.digits,
-                       **basis_keywords(args))
+                       on_stage=stage_reporter(enabled=not args.quiet), **basis_keywords(args))
     if args.json:
         print_json(result.to_dict())
     else:

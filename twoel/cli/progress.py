@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import contextlib
 import sys
+import time
 
 
 @contextlib.contextmanager
@@ -34,3 +35,16 @@ def iterate(items, description: str, enabled: bool = True):
     from tqdm import tqdm
 
     return tqdm(items, desc=description, file=sys.stderr, leave=False)
+
+
+def stage_reporter(enabled: bool = True):
+    """A ``report(text)`` callback writing ``[elapsed] text`` lines to an interactive stderr, or ``None``."""
+    if not enabled or not sys.stderr.isatty():
+        return None
+    started = time.perf_counter()
+
+    def report(text: str) -> None:
+        sys.stderr.write(f"[{time.perf_counter() - started:7.1f} s] {text}\n")
+        sys.stderr.flush()
+
+    return report
