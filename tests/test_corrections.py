@@ -8,7 +8,7 @@ import pytest
 import scipy.constants as sc
 
 from twoel.corrections.finite_mass import finite_mass_energy
-from twoel.corrections.integrals import inverse_square_table
+from twoel.integrals.pairs import inverse_square_table
 from twoel.corrections.masses import most_abundant_isotope, nuclear_mass
 from twoel.corrections.one_electron import dirac_1s, one_electron_ion
 from twoel.corrections.operators import operator_values

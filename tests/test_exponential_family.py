@@ -12,8 +12,8 @@ from twoel.errors import InputError, UnsupportedError
 from twoel.integrals import symbolic, zero_power
 from twoel.integrals.generate import ZERO_POWER_PATH
 from twoel.integrals.kernels import integral
-from twoel.matrices import (HAMILTONIAN_OPERATORS, CorrelatedBasis, generic_primitive_operator_matrices,
-                            operator_matrices, primitive_operator_matrices)
+from twoel.integrals.pairs import primitive_matrices
+from twoel.matrices import HAMILTONIAN_OPERATORS, CorrelatedBasis, operator_matrices, primitive_operator_matrices
 from twoel.system import Ion, State
 
 # C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)
@@ -50,7 +50,7 @@ def test_fast_path_agrees_with_generic(sign):
     ops["r_sum"] = [(1.0, (1, 0, 0)), (1.0, (0, 1, 0))]
     ops["r12_squared"] = [(1.0, (0, 0, 2))]
     fast = primitive_operator_matrices(basis, ops)
-    slow = generic_primitive_operator_matrices(basis, ops)
+    slow = primitive_matrices(basis, ops)
     for name in ops:
         scale = np.max(np.abs(slow[name]))
         assert np.max(np.abs(fast[name] - slow[name])) <= 1e-13 * scale, name

@@ -13,7 +13,7 @@ from twoel.basis import exponential_p
 from twoel.eigen import solve_generalized
 from twoel.errors import InputError, UnsupportedError
 from twoel.integrals import _state_terms, symbolic_states
-from twoel.operators import PairEngine, operator_matrices
+from twoel.integrals.pairs import PairEngine, operator_matrices
 from twoel.pbasis import PBasis
 from twoel.system import Ion, State
 

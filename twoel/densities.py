@@ -24,7 +24,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from .errors import InputError
-from .operators import HAMILTONIAN, basis_kind, operator_matrices
+from .integrals.pairs import basis_kind, operator_matrices
+from .operators import HAMILTONIAN
 from .results import EnergyResult, Wavefunction
 
 EIGHT_PI_SQUARED = 8.0 * np.pi**2

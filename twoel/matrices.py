@@ -21,12 +21,8 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .errors import InputError, ResourceError
-from .integrals import zero_power
-from .integrals._kinetic import kinetic_terms
-from .integrals.kernels import MAX_POWER, integral_table
+from .integrals import pairs, zero_power
 
-#: primitive pairs evaluated per block (bounds memory of the integral tables)
-_PAIR_BLOCK = 40_000
 #: largest number of primitives accepted by the generic builder
 MAX_PRIMITIVES = 6000
 
@@ -128,15 +124,6 @@ class SystemMatrices:
         return self.overlap.shape[0]
 
 
-def _pair_arrays(basis: CorrelatedBasis, exchanged: bool):
-    """Powers and exponents of all primitive pairs ``<χ_p| ... |χ_q>`` (ket exchanged if asked)."""
-    kp, ke = basis.powers, basis.exponents
-    if exchanged:
-        kp = kp[:, [1, 0, 2]]
-        ke = ke[:, [1, 0, 2]]
-    return kp, ke
-
-
 def primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, list]) -> dict[str, np.ndarray]:
     """Primitive-pair matrices ``<χ_p|O|(1 ± P12) χ_q>`` of multiplicative and kinetic operators.
 
@@ -145,7 +132,8 @@ def primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, lis
     basis : CorrelatedBasis
     operators : dict
         Name to a list of ``(coefficient, (da, db, dc))`` monomials ``coefficient·r1^da r2^db r12^dc``;
-        the special value ``"kinetic"`` selects the kinetic-energy operator.
+        the special value ``"kinetic"`` selects the kinetic-energy operator (any operator form
+        of :mod:`twoel.integrals.pairs` is accepted too).
 
     Returns
     -------
@@ -155,89 +143,18 @@ def primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, lis
     -----
     Bases whose powers are all zero (exponentially correlated, :mod:`twoel.basis.exponential`)
     take the closed-form fast path :mod:`twoel.integrals.zero_power` when every operator has a
-    generated form there; everything else uses the generic integral tables.
+    generated form there; everything else uses the one pair evaluator
+    :func:`twoel.integrals.pairs.primitive_matrices`.
     """
     if not np.any(basis.powers) and zero_power.supports(operators):
         return zero_power.primitive_matrices(basis.exponents, basis.sign, operators)
-    return generic_primitive_operator_matrices(basis, operators)
-
-
-def generic_primitive_operator_matrices(basis: CorrelatedBasis, operators: dict[str, list]) -> dict[str, np.ndarray]:
-    """The table-based path of :func:`primitive_operator_matrices` (any powers)."""
-    P = basis.n_primitives
-    result = {name: np.zeros((P, P)) for name in operators}
-    bra_p, bra_e = basis.powers, basis.exponents
-    max_shift = 0
-    for spec in operators.values():
-        if spec == "kinetic":
-            max_shift = max(max_shift, 2)
-        else:
-            max_shift = max(max_shift, max(max(d) for _c, d in spec))
-    for exchanged, weight in ((False, 1.0), (True, float(basis.sign))):
-        ket_p, ket_e = _pair_arrays(basis, exchanged)
-        total_p = bra_p[:, None, :] + ket_p[None, :, :]
-        # distinct exponent rows per side (few for Hylleraas bases), then their pair sums
-        bra_unique, bra_index = np.unique(bra_e, axis=0, return_inverse=True)
-        ket_unique, ket_index = np.unique(ket_e, axis=0, return_inverse=True)
-        unique_e = (bra_unique[:, None, :] + ket_unique[None, :, :]).reshape(-1, 3)
-        inverse = bra_index.reshape(-1)[:, None] * ket_unique.shape[0] + ket_index.reshape(-1)[None, :]
-        max_power = int(total_p.max()) + max_shift
-        if max_power > MAX_POWER:
-            raise InputError(f"basis powers too high: integrals up to power {max_power} needed")
-        size = max_power + 2
-        block = max(1, _PAIR_BLOCK // size**3)
-        for start in range(0, unique_e.shape[0], block):
-            stop = min(start + block, unique_e.shape[0])
-            table = integral_table(unique_e[start:stop, 0], unique_e[start:stop, 1],
-                                   unique_e[start:stop, 2], max_power)
-            mask = (inverse >= start) & (inverse < stop)
-            rows, cols = np.nonzero(mask)
-            local = inverse[rows, cols] - start
-            pw = total_p[rows, cols]
-
-            def lookup(shift):
-                a = pw[:, 0] + 1 + shift[0]
-                b = pw[:, 1] + 1 + shift[1]
-                c = pw[:, 2] + 1 + shift[2]
-                valid = (a >= 0) & (b >= 0) & (c >= 0)
-                values = table[local, np.maximum(a, 0), np.maximum(b, 0), np.maximum(c, 0)]
-                return np.where(valid, values, 0.0), valid
-
-            for name, spec in operators.items():
-                acc = np.zeros(rows.shape[0])
-                if spec == "kinetic":
-                    bp, be = bra_p[rows], bra_e[rows]
-                    kp2, ke2 = ket_p[cols], ket_e[cols]
-                    terms = kinetic_terms(bp[:, 0], bp[:, 1], bp[:, 2], be[:, 0], be[:, 1], be[:, 2],
-                                          kp2[:, 0], kp2[:, 1], kp2[:, 2], ke2[:, 0], ke2[:, 1], ke2[:, 2])
-                    for shift, coefficient in terms:
-                        values, valid = lookup(shift)
-                        coefficient = np.broadcast_to(coefficient, values.shape)
-                        if np.any(~valid & (coefficient != 0)):  # pragma: no cover - derivation guard
-                            raise ArithmeticError("kinetic term needs an integral with power < -1")
-                        acc += coefficient * values
-                else:
-                    for coefficient, shift in spec:
-                        values, valid = lookup(shift)
-                        if not np.all(valid):
-                            raise InputError(f"operator {name!r} needs powers below -1 for this basis")
-                        acc += coefficient * values
-                result[name][rows, cols] += weight * acc
-    return result
-
-
-def _contract(matrix: np.ndarray, contraction: np.ndarray | None) -> np.ndarray:
-    if contraction is None:
-        out = matrix
-    else:
-        out = contraction.T @ matrix @ contraction
-    return 0.5 * (out + out.T)
+    return pairs.primitive_matrices(basis, operators)
 
 
 def operator_matrices(basis: CorrelatedBasis, operators: dict[str, list]) -> dict[str, np.ndarray]:
     """Contracted, symmetrized matrices of the given operators (see :func:`primitive_operator_matrices`)."""
     raw = primitive_operator_matrices(basis, operators)
-    return {name: _contract(m, basis.contraction) for name, m in raw.items()}
+    return {name: pairs.contract(m, basis.contraction) for name, m in raw.items()}
 
 
 #: monomial forms of the Hamiltonian pieces (exchange symmetry lets r2-terms fold into r1-terms

@@ -49,7 +49,8 @@ import numpy as np
 
 from .errors import InputError, UnsupportedError
 from .matrices import CorrelatedBasis
-from .operators import HAMILTONIAN, basis_kind, operator_matrices
+from .integrals.pairs import basis_kind, operator_matrices
+from .operators import HAMILTONIAN
 from .results import EnergyResult, Wavefunction
 
 FOUR_PI = 4.0 * math.pi

@@ -26,8 +26,8 @@ import numpy as np
 from ..eigen import solve_generalized
 from ..errors import UnsupportedError
 from ..matrices import CorrelatedBasis, build_matrices
-from .operators import mass_polarization_terms
-from .integrals import basis_matrix
+from ..integrals.pairs import operator_matrices
+from .operators import MASS_POLARIZATION
 
 
 @dataclass(frozen=True)
@@ -62,7 +62,7 @@ def scaled_basis(basis: CorrelatedBasis, factor: float) -> CorrelatedBasis:
 
 def mass_polarization_matrix(basis: CorrelatedBasis) -> np.ndarray:
     """Matrix of ``p1·p2 = -∇1·∇2`` in the (contracted) basis."""
-    return basis_matrix(basis, mass_polarization_terms, "p1_dot_p2")
+    return operator_matrices(basis, {"p1_dot_p2": MASS_POLARIZATION})["p1_dot_p2"]
 
 
 def finite_mass_energy(basis: CorrelatedBasis, Z: float, nuclear_mass_me: float, root: int = 0,

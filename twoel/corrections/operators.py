@@ -36,46 +36,27 @@ import numpy as np
 
 from ..errors import InputError, UnsupportedError
 from ..matrices import CorrelatedBasis, build_matrices
-from ..integrals._state_terms import s_grad11, s_grad12, s_grad22, s_lap1lap2
-
-#: ∇1χ·∇2χ' terms (p1·p2 up to sign convention of the caller) and ∇1²χ ∇2²χ' terms, derived
-#: once by SymPy in :mod:`twoel.integrals.symbolic_states`
-mass_polarization_terms = s_grad12
-laplacian_product_terms = s_lap1lap2
-
-
-def gradient_sum_terms(*args):
-    """Terms of ``∇1χ·∇1χ' + ∇2χ·∇2χ'`` (twice the kinetic integrand)."""
-    return s_grad11(*args) + s_grad22(*args)
-from .integrals import basis_matrices, contract
+from ..integrals.pairs import UNIT, contract, operator_matrices
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
 MULTIPLICATIVE = {
-    "inv_r1": [((-1, 0, 0), 0.5), ((0, -1, 0), 0.5)],
-    "inv_r12": [((0, 0, -1), 1.0)],
-    "inv_r1_squared": [((-2, 0, 0), 0.5), ((0, -2, 0), 0.5)],
-    "inv_r1_r2": [((-1, -1, 0), 1.0)],
-    "inv_r1_r12": [((-1, 0, -1), 0.5), ((0, -1, -1), 0.5)],
-    "inv_r12_squared": [((0, 0, -2), 1.0)],
+    "inv_r1": [(0.5, (-1, 0, 0)), (0.5, (0, -1, 0))],
+    "inv_r12": [(1.0, (0, 0, -1))],
+    "inv_r1_squared": [(0.5, (-2, 0, 0)), (0.5, (0, -2, 0))],
+    "inv_r1_r2": [(1.0, (-1, -1, 0))],
+    "inv_r1_r12": [(0.5, (-1, 0, -1)), (0.5, (0, -1, -1))],
+    "inv_r12_squared": [(1.0, (0, 0, -2))],
 }
 
-
-def _shifted(terms_function, shift):
-    def shifted(*args):
-        return [((s[0] + shift[0], s[1] + shift[1], s[2] + shift[2]), c) for s, c in terms_function(*args)]
-    return shifted
-
-
-def _gradient_weighted_r1(*args):
-    return ([((s[0] - 1, s[1], s[2]), 0.5 * c) for s, c in gradient_sum_terms(*args)]
-            + [((s[0], s[1] - 1, s[2]), 0.5 * c) for s, c in gradient_sum_terms(*args)])
-
-
+#: derivative operators as pieces of :mod:`twoel.integrals.pairs` (integrands derived by SymPy
+#: in :mod:`twoel.integrals.symbolic_states`): ∇1χ·∇2χ' (p1·p2 up to the sign convention of the
+#: caller), ∇1²χ ∇2²χ', and the gradient sum ∇1χ·∇1χ' + ∇2χ·∇2χ' over r1 (symmetrized) and r12
+MASS_POLARIZATION = [("grad12", UNIT)]
 DERIVATIVE = {
-    "p1_dot_p2": mass_polarization_terms,
-    "p1sq_p2sq": laplacian_product_terms,
-    "gradsq_over_r1": _gradient_weighted_r1,
-    "gradsq_over_r12": _shifted(gradient_sum_terms, (0, 0, -1)),
+    "p1_dot_p2": MASS_POLARIZATION,
+    "p1sq_p2sq": [("lap1lap2", UNIT)],
+    "gradsq_over_r1": [(g, MULTIPLICATIVE["inv_r1"]) for g in ("grad11", "grad22")],
+    "gradsq_over_r12": [(g, MULTIPLICATIVE["inv_r12"]) for g in ("grad11", "grad22")],
 }
 
 
@@ -181,7 +162,7 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
         energy = kinetic - 2 * Z * inv_r1 + inv_r12
     specs = {name: spec for name, spec in MULTIPLICATIVE.items() if name not in ("inv_r1", "inv_r12")}
     specs.update(DERIVATIVE)
-    mats = basis_matrices(basis, specs)
+    mats = operator_matrices(basis, specs)
     values = {name: ev(matrix) for name, matrix in mats.items()}
     if matrices_out is not None:
         matrices_out["system"] = m

@@ -1,41 +1,79 @@
-r"""Pair-wise evaluation of correlated integrals for exponential-type bases.
+r"""The one evaluator of correlated pair integrals and operator matrices (S and P bases).
 
-Where :func:`twoel.integrals.kernels.integral_table` builds a whole table of powers for a few
-exponent triples (Hylleraas bases), the functions here evaluate *one* power triple for very
-many exponent triples (one per basis pair, e.g. the N² pairs of an exponential basis).  They
-use the same positive series as the kernels (``A = α+β``, ``B = β+γ``, ``C = γ+α``)
+Every matrix of the package between correlated primitives
+``χ = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` (S, :class:`twoel.matrices.CorrelatedBasis`)
+or ``z1 χ`` (P, :class:`twoel.pbasis.PBasis`) is a sum of integrals
 
-.. math::
+.. math:: I(a, b, c; \alpha, \beta, \gamma) = \int\!\!\int r_1^a r_2^b r_{12}^c
+          e^{-\alpha r_1 - \beta r_2 - \gamma r_{12}}\, d^3r_1\, d^3r_2
 
-    I(a,b,c) = 16\pi^2\, a'!\, b'!\, c'! \sum_{l_1 \le a'} \sum_{m_1 \le b'} \sum_{n_1 \le c'}
-        \frac{\binom{l_1+m_1}{l_1}}{A^{l_1+m_1+1}}
-        \frac{\binom{m_2+n_1}{n_1}}{B^{m_2+n_1+1}}
-        \frac{\binom{n_2+l_2}{l_2}}{C^{n_2+l_2+1}},
+over the summed bra + ket exponents; only the zero-power Hamiltonian has a separate closed-form
+path (:mod:`twoel.integrals.zero_power`).  Two sources of ``I`` are used:
 
-with ``a' = a+1`` (etc.), ``l_2 = a' - l_1``, ``m_2 = b' - m_1``, ``n_2 = c' - n_1``.
+tables
+    bases with few distinct exponent sums (Hylleraas-type) take whole tables of powers from
+    :func:`twoel.integrals.kernels.integral_table` (and :func:`inverse_square_table`);
+pair series
+    bases with many distinct exponent sums (exponential-type) evaluate one power triple for all
+    pairs at once with the same all-positive series (``A = α+β``, ``B = β+γ``, ``C = γ+α``)
 
-One index may be ``-2`` (needed by ``⟨1/r1²⟩`` and by the global-operator forms of the δ
-functions).  Then ``I(-2,b,c; α) = ∫_α^∞ I(-1,b,c; α') dα'`` and the series turns into
-``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` (``p + q >= 2``).  ``K`` is a smooth rational
-integral with poles at ``t = -A, -C``; it is evaluated by Gauss-Legendre quadrature after the
-map ``t = M(1/u - 1)``, ``M = sqrt(AC)``, which puts both poles at negative ``u`` and makes
-the integrand a smooth function times ``u^{p+q-2}`` (checked against the exact logarithmic
-forms in the tests).  The integral is symmetric under simultaneous permutation of
-``(r1, r2, r12)`` and ``(α, β, γ)``, which reduces ``b = -2`` and ``c = -2`` to ``a = -2``.
+    .. math::
+
+        I(a,b,c) = 16\pi^2\, a'!\, b'!\, c'! \sum_{l_1 \le a'} \sum_{m_1 \le b'} \sum_{n_1 \le c'}
+            \frac{\binom{l_1+m_1}{l_1}}{A^{l_1+m_1+1}}
+            \frac{\binom{m_2+n_1}{n_1}}{B^{m_2+n_1+1}}
+            \frac{\binom{n_2+l_2}{l_2}}{C^{n_2+l_2+1}},
+
+    ``a' = a+1`` (etc.), ``l_2 = a' - l_1``, ``m_2 = b' - m_1``, ``n_2 = c' - n_1``.
+
+One index may be ``-2`` (``⟨1/r1²⟩``, ``(E - V)²`` and the global-operator δ forms).  Then
+``I(-2,b,c; α) = ∫_α^∞ I(-1,b,c; α') dα'`` and the ``A``, ``C`` factors of the series become
+``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` (``p + q >= 2``), see :func:`k_integral`.  The
+integral is symmetric under simultaneous permutation of ``(r1, r2, r12)`` and ``(α, β, γ)``,
+which reduces ``b = -2`` and ``c = -2`` to ``a = -2``.
+
+Operators are lists of *pieces* ``(integrand, weight)``:
+
+``integrand``  ``"unit"`` (multiplicative: the bare weight), ``"kinetic"`` (``½(∇1χ·∇1χ' +
+               ∇2χ·∇2χ')``), ``"grad11"`` (``∇1χ·∇1χ'``), ``"grad22"``, ``"grad12"``
+               (``(∇1χ·∇2χ' + ∇2χ·∇1χ')/2``), ``"laplacian"`` (``χ (-½∇²) χ'``, for checks),
+               ``"lap1lap2"`` (``(∇1²χ ∇2²χ' + ∇2²χ ∇1²χ')/2``, for ``⟨p1² p2²⟩``);
+``weight``     monomials ``[(coefficient, (da, db, dc)), ...]`` meaning
+               ``Σ coefficient · r1^da r2^db r12^dc`` multiplying the integrand.
+
+A bare monomial list ``[(coefficient, (da, db, dc)), ...]`` means ``[("unit", list)]`` and the
+string ``"kinetic"`` means ``[("kinetic", [(1.0, (0, 0, 0))])]``.  The integrands are the SymPy
+derivations of :mod:`twoel.integrals.symbolic_states` (generated ``_state_terms.py``) and
+:mod:`twoel.integrals.symbolic` (generated ``_kinetic.py``).  Basis functions are
+``(1 ± P12)`` applied to the primitives (times the contraction, if any); as in
+:mod:`twoel.matrices` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
+is dropped.
 """
 
 from __future__ import annotations
 
+from collections import defaultdict
 from functools import lru_cache
-from math import comb, factorial, pi
+from math import comb, factorial, log, pi
 
 import numpy as np
 
 from ..errors import InputError
+from . import _state_terms as T
+from ._kinetic import kinetic_terms
+from .kernels import integral_table
 
 SIXTEEN_PI_SQUARED = 16.0 * pi * pi
-#: Gauss-Legendre order used for K(p, q)
-QUADRATURE_ORDER = 64
+#: Gauss–Legendre order of K(p, q) for exponent-sum ratios below RECURSION_RATIO
+QUADRATURE_ORDER = 32
+#: from this ratio max(A, C)/min(A, C) on, K(p, q) comes from the exact recursion
+RECURSION_RATIO = 10.0
+#: the largest number of distinct exponent sums evaluated by whole tables
+TABLE_ROWS = 16
+#: primitive pairs per block (bounds the memory of the pair arrays)
+PAIR_BLOCK = 60_000
+UNIT = [(1.0, (0, 0, 0))]
+INTEGRANDS = ("unit", "kinetic", "grad11", "grad22", "grad12", "laplacian", "lap1lap2")
 
 
 @lru_cache(maxsize=None)
@@ -58,8 +96,102 @@ class _Powers:
         return self.cache[n]
 
 
+class _KValues:
+    r"""``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for arrays ``A, C > 0``, cached per ``(p, q)``.
+
+    With ``ρ = max(A, C)/min(A, C)``:
+
+    * ``ρ >= RECURSION_RATIO``: the exact recursion ``K(p, q) = (K(p, q-1) - K(p-1, q))/(C - A)``
+      from ``K(p, 0) = A^{1-p}/(p-1)``, ``K(0, q) = C^{1-q}/(q-1)``,
+      ``K(1, 1) = ln(C/A)/(C - A)``; the subtracted term is smaller by ~``1/ρ``, so there is
+      no cancellation (relative error < 1e-13 for ``p + q <= 26``, checked against 80-digit
+      mpmath in the tests);
+    * ``ρ < RECURSION_RATIO``: Gauss–Legendre quadrature after ``t = M(1/u - 1)``,
+      ``M = sqrt(AC)``, which puts both poles at negative ``u`` and makes the integrand smooth:
+      16 nodes for ``ρ <= 3`` and ``p + q <= 12``, else 32 (relative error ~1e-14).
+    """
+
+    def __init__(self, A: np.ndarray, C: np.ndarray):
+        A, C = A.reshape(-1), C.reshape(-1)
+        self.n = A.shape[0]
+        ratio = np.maximum(A, C) / np.minimum(A, C)
+        far = ratio >= RECURSION_RATIO
+        self.far = np.nonzero(far)[0]
+        self.close = np.nonzero(~far & (ratio <= 3.0))[0]
+        self.middle = np.nonzero(~far & (ratio > 3.0))[0]
+        self.A, self.C = A, C
+        self._nodes: dict = {}
+        self._recursion: dict = {}
+        self._values: dict = {}
+
+    def _quadrature(self, group: str, index: np.ndarray, order: int, p: int, q: int) -> np.ndarray:
+        key = (group, order)
+        if key not in self._nodes:
+            u, w = _legendre(order)
+            a, c = self.A[index, None], self.C[index, None]
+            M = np.sqrt(a * c)
+            self._nodes[key] = (_Powers(np.broadcast_to(u, (index.size, order)).copy()),
+                                _Powers(1.0 / (u * a + M * (1.0 - u))),
+                                _Powers(1.0 / (u * c + M * (1.0 - u))), M * w)
+        up, ia, ic, wm = self._nodes[key]
+        integrand = ia(p) * ic(q) if p and q else (ia(p) if p else ic(q))
+        if p + q > 2:
+            integrand = integrand * up(p + q - 2)
+        return np.einsum("ij,ij->i", integrand, wm)
+
+    def _recursive(self, p: int, q: int) -> np.ndarray:
+        key = (p, q)
+        if key not in self._recursion:
+            a, c = self.A[self.far], self.C[self.far]
+            if q == 0:
+                value = a ** (1 - p) / (p - 1)
+            elif p == 0:
+                value = c ** (1 - q) / (q - 1)
+            elif p == q == 1:
+                value = np.log(c / a) / (c - a)
+            else:
+                value = (self._recursive(p, q - 1) - self._recursive(p - 1, q)) / (c - a)
+            self._recursion[key] = value
+        return self._recursion[key]
+
+    def value(self, p: int, q: int) -> np.ndarray:
+        if p < 0 or q < 0 or p + q < 2:
+            raise InputError(f"K({p}, {q}) diverges (needs p, q >= 0 and p + q >= 2)")
+        key = (p, q)
+        if key not in self._values:
+            out = np.empty(self.n)
+            if self.far.size:
+                out[self.far] = self._recursive(p, q)
+            if self.close.size:
+                order = 16 if p + q <= 12 else QUADRATURE_ORDER
+                out[self.close] = self._quadrature("close", self.close, order, p, q)
+            if self.middle.size:
+                out[self.middle] = self._quadrature("middle", self.middle, QUADRATURE_ORDER, p, q)
+            self._values[key] = out
+        return self._values[key]
+
+
+def k_integral(A, C, p: int, q: int) -> np.ndarray:
+    """``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for ``p, q >= 0``, ``p + q >= 2`` (see :class:`_KValues`).
+
+    Parameters
+    ----------
+    A, C : array_like
+        Positive exponent sums (bohr⁻¹), same shape.
+    p, q : int
+
+    Returns
+    -------
+    ndarray of the shape of ``A``, in bohr^(p+q-1).
+    """
+    A, C = np.broadcast_arrays(np.asarray(A, dtype=float), np.asarray(C, dtype=float))
+    if np.any(A <= 0) or np.any(C <= 0):
+        raise InputError("K(p, q) needs positive A and C")
+    return _KValues(A, C).value(p, q).reshape(A.shape)
+
+
 class PairIntegrals:
-    """Integrals ``I(a, b, c)`` for a fixed set of exponent triples (one per pair).
+    """Integrals ``I(a, b, c)`` for a fixed set of exponent triples (one per pair), pair series.
 
     Parameters
     ----------
@@ -69,13 +201,22 @@ class PairIntegrals:
 
     def __init__(self, alpha, beta, gamma):
         alpha, beta, gamma = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (alpha, beta, gamma)))
-        self.shape = alpha.shape
-        self.A, self.B, self.C = alpha + beta, beta + gamma, gamma + alpha
-        if np.any(self.A <= 0) or np.any(self.B <= 0) or np.any(self.C <= 0):
+        self._setup(alpha + beta, beta + gamma, gamma + alpha)
+
+    def _setup(self, A, B, C) -> None:
+        self.shape = A.shape
+        self.A, self.B, self.C = A, B, C
+        if np.any(A <= 0) or np.any(B <= 0) or np.any(C <= 0):
             raise InputError("integral exponents must satisfy α+β > 0, β+γ > 0 and γ+α > 0")
-        self._inv = {name: _Powers(1.0 / x) for name, x in (("A", self.A), ("B", self.B), ("C", self.C))}
-        self._k_cache: dict = {}
+        self._inv = {name: _Powers(1.0 / x) for name, x in (("A", A), ("B", B), ("C", C))}
+        self._k: dict = {}
         self._cache: dict = {}
+
+    def subset(self, mask: np.ndarray) -> "PairIntegrals":
+        """The integrals of the pairs selected by a boolean mask (flattened)."""
+        sub = PairIntegrals.__new__(PairIntegrals)
+        sub._setup(*(x.reshape(-1)[mask] for x in (self.A, self.B, self.C)))
+        return sub
 
     def __call__(self, a: int, b: int, c: int) -> np.ndarray:
         """``I(a, b, c)`` for every exponent triple; at most one index may be -2."""
@@ -111,108 +252,85 @@ class PairIntegrals:
         """``I(-2, b, c)`` with the -2 index on the coordinate whose exponents enter ``first``
         and ``third`` (the ``A`` and ``C`` of the formula) and ``free`` the remaining sum."""
         bp, cp = b + 1, c + 1
-        if bp < 0 or cp < 0:
-            raise InputError("integral with two negative-power indices below -1 diverges")
         inv_free = self._inv[free]
+        if (first, third) not in self._k:
+            self._k[(first, third)] = _KValues(getattr(self, first), getattr(self, third))
+        k = self._k[(first, third)]
         total = np.zeros(self.shape)
         for m1 in range(bp + 1):
             m2 = bp - m1
             for n1 in range(cp + 1):
                 n2 = cp - n1
-                total += comb(m2 + n1, n1) * inv_free(m2 + n1 + 1) * self._k(first, third, m1 + 1, n2 + 1)
+                total += (comb(m2 + n1, n1) * inv_free(m2 + n1 + 1)
+                          * k.value(m1 + 1, n2 + 1).reshape(self.shape))
         return SIXTEEN_PI_SQUARED * factorial(bp) * factorial(cp) * total
 
-    def _k(self, first: str, third: str, p: int, q: int) -> np.ndarray:
-        key = (first, third, p, q)
-        if key not in self._k_cache:
-            nodes = self._k_cache.get((first, third))
-            if nodes is None:
-                nodes = _KNodes(getattr(self, first).reshape(-1), getattr(self, third).reshape(-1))
-                self._k_cache[(first, third)] = nodes
-            self._k_cache[key] = nodes.value(p, q).reshape(self.shape)
-        return self._k_cache[key]
+
+@lru_cache(maxsize=None)
+def _binomials(size: int) -> np.ndarray:
+    return np.array([[comb(i + j, i) for j in range(size)] for i in range(size)], dtype=float)
 
 
-class _KNodes:
-    """Quadrature nodes of ``K(p, q)`` for one pair of arrays, with cached inverse powers.
+def inverse_square_table(alpha, beta, gamma, max_power: int) -> np.ndarray:
+    """``I(-2, b, c; α, β, γ)`` for ``-1 <= b, c <= max_power`` (the pair series as a table).
 
-    The number of nodes follows the ratio ``ρ = max(A, C)/min(A, C)`` that sets the distance of
-    the poles from the interval: 16 nodes for ``ρ <= 10``, 32 for ``ρ <= 200``, 64 beyond
-    (relative error below 1e-15 up to ``ρ ~ 2000``, ~1e-11 at ``ρ = 10⁴``).
+    Parameters
+    ----------
+    alpha, beta, gamma : array_like, shape (E,)
+        Exponents (bohr⁻¹); ``α + β > 0``, ``α + γ > 0``, ``β + γ > 0``.
+    max_power : int
+
+    Returns
+    -------
+    ndarray, shape (E, L, L), ``L = max_power + 2``
+        ``table[e, b + 1, c + 1]`` in bohr^(b+c+4).
     """
-
-    GROUPS = ((10.0, 16), (200.0, 32), (np.inf, QUADRATURE_ORDER))
-
-    def __init__(self, A: np.ndarray, C: np.ndarray):
-        ratio = np.maximum(A, C) / np.minimum(A, C)
-        self.n = A.shape[0]
-        self.groups = []
-        lower = 0.0
-        for upper, order in self.GROUPS:
-            index = np.nonzero((ratio > lower) & (ratio <= upper) if lower else ratio <= upper)[0]
-            lower = upper
-            if index.size == 0:
-                continue
-            u, w = _legendre(order)
-            a, c = A[index, None], C[index, None]
-            M = np.sqrt(a * c)
-            ia = _Powers(1.0 / (u * a + M * (1.0 - u)))
-            ic = _Powers(1.0 / (u * c + M * (1.0 - u)))
-            up = _Powers(np.broadcast_to(u, (index.size, order)).copy())
-            self.groups.append((index, up, ia, ic, M * w))
-
-    def value(self, p: int, q: int) -> np.ndarray:
-        if p + q < 2:
-            raise InputError("K(p, q) diverges for p + q < 2")
-        out = np.empty(self.n)
-        for index, up, ia, ic, wm in self.groups:
-            integrand = ia(p) * ic(q) if p and q else (ia(p) if p else ic(q))
-            if p + q > 2:
-                integrand = integrand * up(p + q - 2)
-            out[index] = np.einsum("ij,ij->i", integrand, wm)
-        return out
-
-
-def k_integral(A, C, p: int, q: int, order: int = QUADRATURE_ORDER) -> np.ndarray:
-    """``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for ``p, q >= 0``, ``p + q >= 2``.
-
-    Gauss-Legendre quadrature in ``u`` with ``t = M (1/u - 1)``, ``M = sqrt(A C)``.
-    """
-    if p + q < 2:
-        raise InputError("K(p, q) diverges for p + q < 2")
-    A = np.asarray(A, dtype=float)
-    C = np.asarray(C, dtype=float)
-    u, w = _legendre(order)
-    M = np.sqrt(A * C)
-    flat_a, flat_c, flat_m = A.reshape(-1, 1), C.reshape(-1, 1), M.reshape(-1, 1)
-    out = np.empty(flat_a.shape[0])
-    block = 20000
-    for start in range(0, flat_a.shape[0], block):
-        s = slice(start, start + block)
-        da = u * flat_a[s] + flat_m[s] * (1.0 - u)
-        dc = u * flat_c[s] + flat_m[s] * (1.0 - u)
-        integrand = u ** (p + q - 2) / (da**p * dc**q)
-        out[s] = flat_m[s, 0] * (integrand @ w)
-    return out.reshape(A.shape)
+    alpha, beta, gamma = (np.atleast_1d(np.asarray(x, dtype=float)) for x in (alpha, beta, gamma))
+    A, B, C = alpha + beta, beta + gamma, gamma + alpha
+    if np.any(A <= 0) or np.any(B <= 0) or np.any(C <= 0):
+        raise InputError("integral exponents must satisfy α+β > 0, β+γ > 0 and γ+α > 0")
+    L = max_power + 2
+    inv_b = _Powers(1.0 / B)
+    k = _KValues(A, C)
+    binom = _binomials(L)
+    # H[m2, n1] = C(m2+n1, n1) / B^(m2+n1+1),  G[m1, n2] = K(m1 + 1, n2 + 1)
+    H = np.stack([np.stack([binom[m, n] * inv_b(m + n + 1) for n in range(L)], -1) for m in range(L)], -2)
+    G = np.stack([np.stack([k.value(m + 1, n + 1) for n in range(L)], -1) for m in range(L)], -2)
+    out = np.zeros(H.shape)
+    for m2 in range(L):
+        for n1 in range(L):
+            out[:, m2:, n1:] += H[:, m2, n1, None, None] * G[:, : L - m2, : L - n1]
+    f = np.array([float(factorial(i)) for i in range(L)])
+    return SIXTEEN_PI_SQUARED * out * f[None, :, None] * f[None, None, :]
 
 
 class ExponentTables:
-    """Whole integral tables for bases with few distinct exponent sums (Hylleraas-type).
+    """Whole integral tables for pairs with few distinct exponent sums (Hylleraas-type).
 
-    ``rows`` are the distinct summed exponent triples and ``index[n]`` the row of pair ``n``;
-    tables of :func:`twoel.integrals.kernels.integral_table` (powers >= -1) are built lazily
-    and grown when a larger power is needed; powers of -2 fall back to :class:`PairIntegrals`.
+    ``rows`` are the distinct summed exponent triples and ``index[n]`` the row of pair ``n``.
+    The tables (powers >= -1 from :func:`twoel.integrals.kernels.integral_table`, one power -2
+    from :func:`inverse_square_table` in each of the three positions) are built lazily and
+    grown when a larger power is needed.
     """
 
     def __init__(self, rows: np.ndarray, index: np.ndarray):
         self.rows, self.index = rows, index
         self.table = None
         self.max_power = -1
-        self.singular: dict = {}
+        self.square: dict = {}
+
+    def _square_table(self, position: int, need: int) -> np.ndarray:
+        table, size = self.square.get(position, (None, -1))
+        if table is None or need > size:
+            size = max(need, 2 * size, 4)
+            a, b, g = self.rows[:, 0], self.rows[:, 1], self.rows[:, 2]
+            # I(a, -2, c) = I(-2, a, c; β, α, γ), I(a, b, -2) = I(-2, b, a; γ, β, α)
+            args = ((a, b, g), (b, a, g), (g, b, a))[position]
+            table = inverse_square_table(*args, size)
+            self.square[position] = (table, size)
+        return table
 
     def values(self, a: np.ndarray, b: np.ndarray, c: np.ndarray, index: np.ndarray) -> np.ndarray:
-        from .kernels import integral_table
-
         out = np.empty(a.shape)
         regular = (a >= -1) & (b >= -1) & (c >= -1)
         if np.any(regular):
@@ -221,15 +339,12 @@ class ExponentTables:
                 self.max_power = max(need, 2 * self.max_power, 4)
                 self.table = integral_table(self.rows[:, 0], self.rows[:, 1], self.rows[:, 2], self.max_power)
             out[regular] = self.table[index[regular], a[regular] + 1, b[regular] + 1, c[regular] + 1]
-        if not np.all(regular):
-            keys = np.stack([a, b, c, index], axis=1)[~regular]
-            where = np.nonzero(~regular)[0]
-            for key in np.unique(keys, axis=0):
-                k = tuple(int(x) for x in key)
-                if k not in self.singular:
-                    row = self.rows[k[3]]
-                    self.singular[k] = float(PairIntegrals(row[0], row[1], row[2])(k[0], k[1], k[2]))
-                out[where[np.all(keys == key, axis=1)]] = self.singular[k]
+        # one -2 at position 0, 1 or 2; the other two powers index the table (in the order above)
+        for position, (square, i, j) in enumerate(((a, b, c), (b, a, c), (c, b, a))):
+            sel = square == -2
+            if np.any(sel):
+                table = self._square_table(position, int(max(i[sel].max(), j[sel].max())))
+                out[sel] = table[index[sel], i[sel] + 1, j[sel] + 1]
         return out
 
 
@@ -244,14 +359,17 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
         ``[((p, q, s), coefficient), ...]``; coefficients are scalars or arrays of the pair shape.
     base_powers : tuple of three ndarrays of int
         Summed bra + ket powers of ``(r1, r2, r12)`` per pair.
+    tables : ExponentTables, optional
+        Whole tables for the same pairs (used when the powers differ between pairs).
 
-    Terms whose coefficient vanishes for every pair are skipped, so singular monomials of a
-    generated integrand cost nothing when their prefactor is zero.
+    Terms whose coefficient vanishes for a pair are skipped there, so singular monomials of a
+    generated integrand cost nothing (and raise nothing) when their prefactor is zero.
     """
     shape = integrals.shape
     total = np.zeros(shape)
     pa, pb, pc = (np.broadcast_to(np.asarray(x), shape) for x in base_powers)
     uniform = all(np.all(x == x.flat[0]) for x in (pa, pb, pc))
+    flat_total = total.reshape(-1)
     for (p, q, s), coefficient in terms:
         coefficient = np.broadcast_to(np.asarray(coefficient, dtype=float), shape)
         if not np.any(coefficient):
@@ -260,27 +378,177 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
             a, b, c = int(pa.flat[0]) + p, int(pb.flat[0]) + q, int(pc.flat[0]) + s
             total += coefficient * integrals(a, b, c)
             continue
-        if tables is not None:
-            sel = np.nonzero(coefficient.reshape(-1))[0]
-            a, b, c = ((x.reshape(-1)[sel] + d) for x, d in ((pa, p), (pb, q), (pc, s)))
-            if np.any(np.minimum(np.minimum(a, b), c) < -2) or np.any(((a == -2) + (b == -2) + (c == -2)) > 1):
-                raise InputError("a generated term needs a divergent integral for this basis")
-            total.reshape(-1)[sel] += coefficient.reshape(-1)[sel] * tables.values(a, b, c, tables.index[sel])
-            continue
-        keys = np.stack([pa + p, pb + q, pc + s], axis=-1).reshape(-1, 3)
-        nonzero = coefficient.reshape(-1) != 0
-        flat_total = total.reshape(-1)
         flat_coef = coefficient.reshape(-1)
-        for key in np.unique(keys[nonzero], axis=0):
-            mask = nonzero & np.all(keys == key, axis=1)
-            sub = PairIntegrals.__new__(PairIntegrals)
-            _subset(integrals, sub, mask)
-            flat_total[mask] += flat_coef[mask] * sub(int(key[0]), int(key[1]), int(key[2]))
+        sel = np.nonzero(flat_coef)[0]
+        a, b, c = ((x.reshape(-1)[sel] + d) for x, d in ((pa, p), (pb, q), (pc, s)))
+        if np.any(np.minimum(np.minimum(a, b), c) < -2) or np.any(((a == -2) + (b == -2) + (c == -2)) > 1):
+            raise InputError("a generated term needs a divergent integral for this basis")
+        if tables is not None:
+            flat_total[sel] += flat_coef[sel] * tables.values(a, b, c, tables.index[sel])
+            continue
+        keys = np.stack([a, b, c], axis=1)
+        for key in np.unique(keys, axis=0):
+            where = sel[np.all(keys == key, axis=1)]
+            mask = np.zeros(flat_total.shape[0], dtype=bool)
+            mask[where] = True
+            flat_total[mask] += flat_coef[mask] * integrals.subset(mask)(int(key[0]), int(key[1]), int(key[2]))
     return total
 
 
-def _subset(full: PairIntegrals, sub: PairIntegrals, mask: np.ndarray) -> None:
-    sub.A, sub.B, sub.C = (x.reshape(-1)[mask] for x in (full.A, full.B, full.C))
-    sub.shape = sub.A.shape
-    sub._inv = {name: _Powers(1.0 / x) for name, x in (("A", sub.A), ("B", sub.B), ("C", sub.C))}
-    sub._k_cache, sub._cache = {}, {}
+def basis_kind(basis) -> str:
+    """``"S"`` for a CorrelatedBasis, ``"P"`` for a PBasis."""
+    kind = getattr(basis, "angular_momentum", 0)
+    if kind == 0:
+        return "S"
+    if kind == 1:
+        return "P"
+    raise InputError(f"no operator integrals for total angular momentum L = {kind}")
+
+
+def _term_functions(kind: str, integrand: str, exchanged: bool):
+    """``[(function or None, factor), ...]`` generating the integrand (``None``: the unit)."""
+    if integrand == "unit" and kind == "S":
+        return [(None, 1.0)]
+    if integrand == "kinetic":
+        if kind == "S":
+            return [(kinetic_terms, 1.0)]
+        pair = "cross" if exchanged else "same"
+        return [(T.TERMS[f"p_{pair}_grad11"], 0.5), (T.TERMS[f"p_{pair}_grad22"], 0.5)]
+    if integrand not in INTEGRANDS:
+        raise InputError(f"unknown integrand {integrand!r}; expected one of {', '.join(INTEGRANDS)}")
+    if kind == "S":
+        return [(T.TERMS[f"s_{integrand}"], 1.0)]
+    pair = "cross" if exchanged else "same"
+    name = "angular" if integrand == "unit" else integrand
+    return [(T.TERMS[f"p_{pair}_{name}"], 1.0)]
+
+
+def _convolve(terms, weight, factor: float = 1.0):
+    out = []
+    for (p, q, s), coefficient in terms:
+        for w, (da, db, dc) in weight:
+            out.append(((p + da, q + db, s + dc), factor * w * coefficient))
+    return out
+
+
+class PairEngine:
+    """Bra/ket pair data of one basis (pairs ``(bra[n], ket[n])``), direct and exchanged ket."""
+
+    def __init__(self, basis, bra: np.ndarray | None = None, ket: np.ndarray | None = None):
+        self.basis = basis
+        self.kind = basis_kind(basis)
+        self.sign = float(basis.sign)
+        powers, exponents = basis.powers, basis.exponents
+        P = powers.shape[0]
+        if bra is None:  # all pairs, as a (P, P) grid
+            bra, ket = (x.reshape(-1) for x in np.meshgrid(np.arange(P), np.arange(P), indexing="ij"))
+            self.shape = (P, P)
+        else:
+            self.shape = bra.shape
+        self._sides = []
+        for exchanged in (False, True):
+            kp, ke = (powers[:, [1, 0, 2]], exponents[:, [1, 0, 2]]) if exchanged else (powers, exponents)
+            bp, be = powers[bra], exponents[bra]
+            kp2, ke2 = kp[ket], ke[ket]
+            args = (bp[:, 0], bp[:, 1], bp[:, 2], be[:, 0], be[:, 1], be[:, 2],
+                    kp2[:, 0], kp2[:, 1], kp2[:, 2], ke2[:, 0], ke2[:, 1], ke2[:, 2])
+            total_e = be + ke2
+            integrals = PairIntegrals(total_e[:, 0], total_e[:, 1], total_e[:, 2])
+            base = tuple(bp[:, n] + kp2[:, n] for n in range(3))
+            rows, index = np.unique(total_e, axis=0, return_inverse=True)
+            tables = ExponentTables(rows, index.reshape(-1)) if rows.shape[0] <= TABLE_ROWS else None
+            self._sides.append((exchanged, args, integrals, base, tables))
+
+    def primitive(self, pieces) -> np.ndarray:
+        """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
+        out = None
+        for exchanged, args, integrals, base, tables in self._sides:
+            terms = []
+            for integrand, weight in pieces:
+                for function, factor in _term_functions(self.kind, integrand, exchanged):
+                    generated = [((0, 0, 0), 1.0)] if function is None else function(*args)
+                    terms.extend(_convolve(generated, weight, factor))
+            acc = evaluate_terms(integrals, terms, base, tables)
+            out = acc if out is None else out + self.sign * acc
+        return out.reshape(self.shape)
+
+
+def _pieces(name: str, spec) -> list:
+    """The piece list of one operator specification (see the module docstring)."""
+    if isinstance(spec, str):
+        if spec != "kinetic":
+            raise InputError(f"operator {name!r}: unknown specification {spec!r}")
+        return [("kinetic", UNIT)]
+    spec = list(spec)
+    if not spec:
+        raise InputError(f"operator {name!r} is empty")
+    if all(isinstance(item[0], str) for item in spec):
+        return spec
+    return [("unit", spec)]
+
+
+_SWAP = {"grad11": "grad22", "grad22": "grad11"}
+
+
+def exchange_symmetrized(pieces) -> list:
+    """``½(O + P12 O P12)`` as pieces, merging equal monomials.
+
+    Between exchange-(anti)symmetrized functions ``O`` and its symmetrized form have the same
+    matrix, and the symmetrized form lets only the pairs ``p <= q`` be evaluated.  Symmetric
+    input comes back unchanged (up to the order of the monomials).
+    """
+    merged: dict = defaultdict(float)
+    order = []
+    for integrand, weight in pieces:
+        if integrand not in INTEGRANDS:
+            raise InputError(f"unknown integrand {integrand!r}; expected one of {', '.join(INTEGRANDS)}")
+        for coefficient, (da, db, dc) in weight:
+            for key in ((integrand, (da, db, dc)), (_SWAP.get(integrand, integrand), (db, da, dc))):
+                if key not in merged:
+                    order.append(key)
+                merged[key] += 0.5 * float(coefficient)
+    grouped: dict = {}
+    for integrand, shift in order:
+        if merged[(integrand, shift)] != 0.0:
+            grouped.setdefault(integrand, []).append((merged[(integrand, shift)], shift))
+    return list(grouped.items())
+
+
+def primitive_matrices(basis, operators: dict) -> dict[str, np.ndarray]:
+    """Primitive-pair matrices ``<χ_p|O|(1 ± P12) χ_q>`` of an S or P basis.
+
+    Parameters
+    ----------
+    basis : CorrelatedBasis or PBasis
+    operators : dict
+        Name to a piece list, a monomial list or ``"kinetic"`` (see the module docstring).
+        Each operator is replaced by its exchange-symmetrized form (same matrices between the
+        basis functions), so only the pairs ``p <= q`` are evaluated.
+
+    Returns
+    -------
+    dict of ndarray, each of shape (P, P), symmetric
+    """
+    pieces = {name: exchange_symmetrized(_pieces(name, spec)) for name, spec in operators.items()}
+    P = basis.powers.shape[0]
+    raw = {name: np.zeros((P, P)) for name in pieces}
+    bra, ket = np.triu_indices(P)
+    for start in range(0, bra.shape[0], PAIR_BLOCK):
+        b, k = bra[start:start + PAIR_BLOCK], ket[start:start + PAIR_BLOCK]
+        engine = PairEngine(basis, b, k)
+        for name, piece_list in pieces.items():
+            values = engine.primitive(piece_list)
+            raw[name][b, k] = values
+            raw[name][k, b] = values
+    return raw
+
+
+def contract(matrix: np.ndarray, contraction: np.ndarray | None) -> np.ndarray:
+    """Contract a primitive matrix with the basis contraction and symmetrize it."""
+    out = matrix if contraction is None else contraction.T @ matrix @ contraction
+    return 0.5 * (out + out.T)
+
+
+def operator_matrices(basis, operators: dict) -> dict[str, np.ndarray]:
+    """Contracted, symmetrized matrices ``<φ_m|O|φ_n>`` (see :func:`primitive_matrices`)."""
+    return {name: contract(m, basis.contraction) for name, m in primitive_matrices(basis, operators).items()}
