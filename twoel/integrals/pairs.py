@@ -68,8 +68,10 @@ SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 QUADRATURE_ORDER = 32
 #: from this ratio max(A, C)/min(A, C) on, K(p, q) comes from the exact recursion
 RECURSION_RATIO = 10.0
-#: the largest number of distinct exponent sums evaluated by whole tables
+#: bases with more distinct exponent sums per pair block get blocks sized by TABLE_ENTRIES
 TABLE_ROWS = 16
+#: table entries (float64) per pair block for bases with powers and many distinct exponents
+TABLE_ENTRIES = 4_000_000
 #: primitive pairs per block (bounds the memory of the pair arrays)
 PAIR_BLOCK = 60_000
 UNIT = [(1.0, (0, 0, 0))]
@@ -319,6 +321,12 @@ class ExponentTables:
         self.max_power = -1
         self.square: dict = {}
 
+    def reserve(self, max_power: int) -> None:
+        """Build the regular table up to ``max_power`` now (avoids regrowing it term by term)."""
+        if self.table is None or max_power > self.max_power:
+            self.max_power = max_power
+            self.table = integral_table(self.rows[:, 0], self.rows[:, 1], self.rows[:, 2], max_power)
+
     def _square_table(self, position: int, need: int) -> np.ndarray:
         table, size = self.square.get(position, (None, -1))
         if table is None or need > size:
@@ -336,8 +344,7 @@ class ExponentTables:
         if np.any(regular):
             need = int(max(a[regular].max(), b[regular].max(), c[regular].max()))
             if self.table is None or need > self.max_power:
-                self.max_power = max(need, 2 * self.max_power, 4)
-                self.table = integral_table(self.rows[:, 0], self.rows[:, 1], self.rows[:, 2], self.max_power)
+                self.reserve(max(need, self.max_power + 4))
             out[regular] = self.table[index[regular], a[regular] + 1, b[regular] + 1, c[regular] + 1]
         # one -2 at position 0, 1 or 2; the other two powers index the table (in the order above)
         for position, (square, i, j) in enumerate(((a, b, c), (b, a, c), (c, b, a))):
@@ -354,13 +361,13 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
     Parameters
     ----------
     integrals : PairIntegrals
-        Integrals for the summed exponents of every pair.
+        Integrals for the summed exponents of every pair (used when all pairs share the powers).
     terms : list
         ``[((p, q, s), coefficient), ...]``; coefficients are scalars or arrays of the pair shape.
     base_powers : tuple of three ndarrays of int
         Summed bra + ket powers of ``(r1, r2, r12)`` per pair.
-    tables : ExponentTables, optional
-        Whole tables for the same pairs (used when the powers differ between pairs).
+    tables : ExponentTables
+        Whole tables for the same pairs; needed when the powers differ between pairs.
 
     Terms whose coefficient vanishes for a pair are skipped there, so singular monomials of a
     generated integrand cost nothing (and raise nothing) when their prefactor is zero.
@@ -369,6 +376,8 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
     total = np.zeros(shape)
     pa, pb, pc = (np.broadcast_to(np.asarray(x), shape) for x in base_powers)
     uniform = all(np.all(x == x.flat[0]) for x in (pa, pb, pc))
+    if not uniform and tables is None:
+        raise ValueError("pairs with different powers need ExponentTables")  # pragma: no cover - guard
     flat_total = total.reshape(-1)
     for (p, q, s), coefficient in terms:
         coefficient = np.broadcast_to(np.asarray(coefficient, dtype=float), shape)
@@ -382,16 +391,9 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
         sel = np.nonzero(flat_coef)[0]
         a, b, c = ((x.reshape(-1)[sel] + d) for x, d in ((pa, p), (pb, q), (pc, s)))
         if np.any(np.minimum(np.minimum(a, b), c) < -2) or np.any(((a == -2) + (b == -2) + (c == -2)) > 1):
-            raise InputError("a generated term needs a divergent integral for this basis")
-        if tables is not None:
-            flat_total[sel] += flat_coef[sel] * tables.values(a, b, c, tables.index[sel])
-            continue
-        keys = np.stack([a, b, c], axis=1)
-        for key in np.unique(keys, axis=0):
-            where = sel[np.all(keys == key, axis=1)]
-            mask = np.zeros(flat_total.shape[0], dtype=bool)
-            mask[where] = True
-            flat_total[mask] += flat_coef[mask] * integrals.subset(mask)(int(key[0]), int(key[1]), int(key[2]))
+            raise InputError("a generated term needs a divergent integral I(a, b, c) for this basis "
+                             "(a power below -2, or two powers of -2)")
+        flat_total[sel] += flat_coef[sel] * tables.values(a, b, c, tables.index[sel])
     return total
 
 
@@ -432,7 +434,11 @@ def _convolve(terms, weight, factor: float = 1.0):
 
 
 class PairEngine:
-    """Bra/ket pair data of one basis (pairs ``(bra[n], ket[n])``), direct and exchanged ket."""
+    """Bra/ket pair data of one basis (pairs ``(bra[n], ket[n])``), direct and exchanged ket.
+
+    Pairs that all share the same powers (exponential bases) use the pair series; otherwise
+    whole tables over the distinct exponent sums (:class:`ExponentTables`).
+    """
 
     def __init__(self, basis, bra: np.ndarray | None = None, ket: np.ndarray | None = None):
         self.basis = basis
@@ -455,22 +461,44 @@ class PairEngine:
             total_e = be + ke2
             integrals = PairIntegrals(total_e[:, 0], total_e[:, 1], total_e[:, 2])
             base = tuple(bp[:, n] + kp2[:, n] for n in range(3))
-            rows, index = np.unique(total_e, axis=0, return_inverse=True)
-            tables = ExponentTables(rows, index.reshape(-1)) if rows.shape[0] <= TABLE_ROWS else None
+            tables = None
+            if any(np.any(x != x[0]) for x in base):
+                rows, index = np.unique(total_e, axis=0, return_inverse=True)
+                tables = ExponentTables(rows, index.reshape(-1))
             self._sides.append((exchanged, args, integrals, base, tables))
 
-    def primitive(self, pieces) -> np.ndarray:
-        """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
-        out = None
-        for exchanged, args, integrals, base, tables in self._sides:
+    def terms(self, pieces) -> list:
+        """The generated ``((p, q, s), coefficient)`` terms of an operator, per side (direct, exchanged)."""
+        out = []
+        for exchanged, args, _integrals, _base, _tables in self._sides:
             terms = []
             for integrand, weight in pieces:
                 for function, factor in _term_functions(self.kind, integrand, exchanged):
                     generated = [((0, 0, 0), 1.0)] if function is None else function(*args)
                     terms.extend(_convolve(generated, weight, factor))
+            out.append(terms)
+        return out
+
+    def reserve(self, side_terms: list) -> None:
+        """Build the tables once for the largest power any of the given term lists needs."""
+        for (_exchanged, _args, _integrals, base, tables), terms_lists in zip(self._sides, zip(*side_terms)):
+            shifts = [max(s) for terms in terms_lists for s, _c in terms]
+            if tables is None or not shifts:
+                continue
+            shift = max(shifts)
+            tables.reserve(int(max(x.max() for x in base)) + max(shift, 0))
+
+    def evaluate(self, side_terms) -> np.ndarray:
+        """``<χ_bra|O|(1 ± P12)χ_ket>`` from the term lists of :meth:`terms`."""
+        out = None
+        for (exchanged, _args, integrals, base, tables), terms in zip(self._sides, side_terms):
             acc = evaluate_terms(integrals, terms, base, tables)
             out = acc if out is None else out + self.sign * acc
         return out.reshape(self.shape)
+
+    def primitive(self, pieces) -> np.ndarray:
+        """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
+        return self.evaluate(self.terms(pieces))
 
 
 def _pieces(name: str, spec) -> list:
@@ -533,14 +561,30 @@ def primitive_matrices(basis, operators: dict) -> dict[str, np.ndarray]:
     P = basis.powers.shape[0]
     raw = {name: np.zeros((P, P)) for name in pieces}
     bra, ket = np.triu_indices(P)
-    for start in range(0, bra.shape[0], PAIR_BLOCK):
-        b, k = bra[start:start + PAIR_BLOCK], ket[start:start + PAIR_BLOCK]
+    for start, stop in _pair_blocks(basis, pieces, bra.shape[0]):
+        b, k = bra[start:stop], ket[start:stop]
         engine = PairEngine(basis, b, k)
-        for name, piece_list in pieces.items():
-            values = engine.primitive(piece_list)
+        terms = {name: engine.terms(piece_list) for name, piece_list in pieces.items()}
+        engine.reserve(list(terms.values()))
+        for name, side_terms in terms.items():
+            values = engine.evaluate(side_terms)
             raw[name][b, k] = values
             raw[name][k, b] = values
     return raw
+
+
+def _pair_blocks(basis, pieces: dict, n_pairs: int):
+    """Ranges of the upper-triangle pair list evaluated together.
+
+    Bases with powers and many distinct exponents get blocks small enough that their integral
+    tables (one ``L³`` block per distinct exponent sum) stay below ~32 MB.
+    """
+    block = PAIR_BLOCK
+    if np.any(basis.powers) and np.unique(basis.exponents, axis=0).shape[0] ** 2 > TABLE_ROWS:
+        weight_shift = max([max(d) for p in pieces.values() for _i, w in p for _c, d in w], default=0)
+        L = 2 * int(basis.powers.max()) + max(weight_shift, 0) + 5 + 2
+        block = int(min(PAIR_BLOCK, max(256, TABLE_ENTRIES // L**3)))
+    return [(start, min(start + block, n_pairs)) for start in range(0, n_pairs, block)]
 
 
 def contract(matrix: np.ndarray, contraction: np.ndarray | None) -> np.ndarray:
