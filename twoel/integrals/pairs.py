@@ -339,8 +339,14 @@ class ExponentTables:
         return table
 
     def values(self, a: np.ndarray, b: np.ndarray, c: np.ndarray, index: np.ndarray) -> np.ndarray:
+        low = np.minimum(np.minimum(a, b), c)
+        if low.size and low.min() >= -1:
+            need = int(max(a.max(), b.max(), c.max()))
+            if self.table is None or need > self.max_power:
+                self.reserve(max(need, self.max_power + 4))
+            return self.table[index, a + 1, b + 1, c + 1]
         out = np.empty(a.shape)
-        regular = (a >= -1) & (b >= -1) & (c >= -1)
+        regular = low >= -1
         if np.any(regular):
             need = int(max(a[regular].max(), b[regular].max(), c[regular].max()))
             if self.table is None or need > self.max_power:
@@ -463,7 +469,13 @@ class PairEngine:
             base = tuple(bp[:, n] + kp2[:, n] for n in range(3))
             tables = None
             if any(np.any(x != x[0]) for x in base):
-                rows, index = np.unique(total_e, axis=0, return_inverse=True)
+                # distinct exponent rows per side (few for Hylleraas bases), then their pair sums
+                bra_rows, bra_index = np.unique(exponents, axis=0, return_inverse=True)
+                ket_rows, ket_index = np.unique(ke, axis=0, return_inverse=True)
+                n_ket = ket_rows.shape[0]
+                codes, index = np.unique(bra_index.reshape(-1)[bra] * n_ket + ket_index.reshape(-1)[ket],
+                                         return_inverse=True)
+                rows = bra_rows[codes // n_ket] + ket_rows[codes % n_ket]
                 tables = ExponentTables(rows, index.reshape(-1))
             self._sides.append((exchanged, args, integrals, base, tables))
 
