@@ -61,7 +61,7 @@ import numpy as np
 from ..errors import InputError
 from . import _state_terms as T
 from ._kinetic import kinetic_terms
-from .kernels import integral_table
+from .kernels import MAX_POWER, integral_table
 
 SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 #: Gauss–Legendre order of K(p, q) for exponent-sum ratios below RECURSION_RATIO
@@ -106,8 +106,8 @@ class _KValues:
     * ``ρ >= RECURSION_RATIO``: the exact recursion ``K(p, q) = (K(p, q-1) - K(p-1, q))/(C - A)``
       from ``K(p, 0) = A^{1-p}/(p-1)``, ``K(0, q) = C^{1-q}/(q-1)``,
       ``K(1, 1) = ln(C/A)/(C - A)``; the subtracted term is smaller by ~``1/ρ``, so there is
-      no cancellation (relative error < 1e-13 for ``p + q <= 26``, checked against 80-digit
-      mpmath in the tests);
+      no cancellation (relative error < 1e-13 for ``p + q <= 26``; the tests check against SymPy
+      and 60-digit mpmath);
     * ``ρ < RECURSION_RATIO``: Gauss–Legendre quadrature after ``t = M(1/u - 1)``,
       ``M = sqrt(AC)``, which puts both poles at negative ``u`` and makes the integrand smooth:
       16 nodes for ``ρ <= 3`` and ``p + q <= 12``, else 32 (relative error ~1e-14).
@@ -307,8 +307,9 @@ def inverse_square_table(alpha, beta, gamma, max_power: int) -> np.ndarray:
 
 
 class ExponentTables:
-    """Whole integral tables for pairs with few distinct exponent sums (Hylleraas-type).
+    """Whole integral tables over the distinct exponent sums of a set of pairs.
 
+    Used when the powers differ between pairs (Hylleraas-type bases, few distinct sums).
     ``rows`` are the distinct summed exponent triples and ``index[n]`` the row of pair ``n``.
     The tables (powers >= -1 from :func:`twoel.integrals.kernels.integral_table`, one power -2
     from :func:`inverse_square_table` in each of the three positions) are built lazily and
@@ -327,10 +328,16 @@ class ExponentTables:
             self.max_power = max_power
             self.table = integral_table(self.rows[:, 0], self.rows[:, 1], self.rows[:, 2], max_power)
 
+    def _regular(self, a, b, c, index) -> np.ndarray:
+        need = int(max(a.max(), b.max(), c.max()))
+        if self.table is None or need > self.max_power:
+            self.reserve(max(need, min(self.max_power + 4, MAX_POWER)))
+        return self.table[index, a + 1, b + 1, c + 1]
+
     def _square_table(self, position: int, need: int) -> np.ndarray:
         table, size = self.square.get(position, (None, -1))
         if table is None or need > size:
-            size = max(need, 2 * size, 4)
+            size = max(need, min(2 * size, MAX_POWER), 4)
             a, b, g = self.rows[:, 0], self.rows[:, 1], self.rows[:, 2]
             # I(a, -2, c) = I(-2, a, c; β, α, γ), I(a, b, -2) = I(-2, b, a; γ, β, α)
             args = ((a, b, g), (b, a, g), (g, b, a))[position]
@@ -339,19 +346,14 @@ class ExponentTables:
         return table
 
     def values(self, a: np.ndarray, b: np.ndarray, c: np.ndarray, index: np.ndarray) -> np.ndarray:
+        """``I(a[n], b[n], c[n])`` of the exponent row ``index[n]`` (at most one power -2 each)."""
         low = np.minimum(np.minimum(a, b), c)
         if low.size and low.min() >= -1:
-            need = int(max(a.max(), b.max(), c.max()))
-            if self.table is None or need > self.max_power:
-                self.reserve(max(need, self.max_power + 4))
-            return self.table[index, a + 1, b + 1, c + 1]
+            return self._regular(a, b, c, index)
         out = np.empty(a.shape)
         regular = low >= -1
         if np.any(regular):
-            need = int(max(a[regular].max(), b[regular].max(), c[regular].max()))
-            if self.table is None or need > self.max_power:
-                self.reserve(max(need, self.max_power + 4))
-            out[regular] = self.table[index[regular], a[regular] + 1, b[regular] + 1, c[regular] + 1]
+            out[regular] = self._regular(a[regular], b[regular], c[regular], index[regular])
         # one -2 at position 0, 1 or 2; the other two powers index the table (in the order above)
         for position, (square, i, j) in enumerate(((a, b, c), (b, a, c), (c, b, a))):
             sel = square == -2
