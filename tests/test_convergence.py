@@ -61,6 +61,10 @@ def test_study_on_small_bases():
     true_error = study.variational_hartree - float(HE_GROUND)
     assert 0 < true_error < study.variational_error_bar_hartree
     json.dumps(study.to_dict())
+    # the true error is taken from the decimal texts, so it survives beyond float64 resolution
+    with mpmath.workdps(50):
+        expected = float(mpmath.mpf(study.energy_texts[-1]) - mpmath.mpf(HE_GROUND))
+    assert study.to_dict()["true_error_hartree"] == expected
 
 
 def test_cli_converge_and_energy_json(capsys):

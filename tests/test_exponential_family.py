@@ -164,7 +164,7 @@ def test_energies_decrease_with_size_and_stay_above_the_exact_value():
 
 
 def test_helium_ground_state_default_precision():
-    """Default size and precision (float64 solve plus the mixed step): 11 digits (measured 2.6e-12)."""
+    """Default size and precision (float64 solve plus the mixed step): 11 digits (measured 9.3e-13)."""
     r = twoel.solve(2, "1^1S", "exponential", error_bar=False)
     assert r.size == 300
     assert HE_GROUND < r.energy_hartree < HE_GROUND + 1e-11
@@ -183,3 +183,35 @@ def test_solve_build_of_1000_terms_uses_fast_path():
     m = basis.matrices()
     assert m.overlap.shape == (1000, 1000)
     assert np.allclose(m.overlap, m.overlap.T)
+
+
+def test_later_boxes_keep_bases_nested_and_small_bases_unchanged():
+    """A box with ``from_size = s`` gets no terms while N <= s and its share of N - s after;
+    counts never fall as N grows, so every basis is the prefix of the larger ones."""
+    fractions, starts = [0.5, 0.3, 0.2, 0.16, 0.123], [0, 0, 0, 300, 300]
+    previous = [0] * 5
+    for n in range(1, 1700, 7):
+        counts = exponential.box_counts(fractions, n, starts)
+        assert sum(counts) == n and all(c >= p for c, p in zip(counts, previous))
+        previous = counts
+    assert exponential.box_counts(fractions, 300, starts) == [150, 90, 60, 0, 0]
+    assert exponential.box_counts(fractions, 1600, starts)[3:] == [208, 160]  # 0.16·1300, 0.123·1300
+    box_set = exponential_boxes.box_set_for(Ion(2), State.parse("1^1S"))
+    assert [b.from_size for b in box_set.boxes] == [0, 0, 0, 300, 300]
+    three = exponential.box_exponents(box_set.boxes[:3], 300, 1)
+    five = exponential.box_exponents(box_set.boxes, 300, 1)
+    assert np.array_equal(three, five)
+    small = {tuple(r) for r in exponential.box_exponents(box_set.boxes, 500, 1)}
+    assert all(tuple(r) in small for r in five)
+
+
+def test_later_box_file_errors():
+    box = {"fraction": 0.5, "alpha": [1, 2], "beta": [1, 2], "gamma": [0, 1]}
+    for bad, message in ((dict(box, from_size=-1), "from_size"), (dict(box, from_size=2.5), "from_size")):
+        with pytest.raises(InputError, match=message):
+            exponential_boxes.parse_boxes([box, bad])
+    with pytest.raises(InputError, match="from_size 0"):
+        exponential_boxes.parse_boxes([dict(box, from_size=10)])
+    with pytest.raises(InputError, match="exceed 1"):
+        exponential_boxes.parse_boxes([box, dict(box, fraction=0.7, from_size=10),
+                                       dict(box, fraction=0.6, from_size=20)])

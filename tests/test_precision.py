@@ -169,7 +169,7 @@ def test_helium_extended_eighteen_digits():
         err = float(mpmath.mpf(r.provenance["energy_full_text"]) - mpmath.mpf(HE_GROUND))
     assert 0 < err < 2.9e-18  # >= 18 significant digits (|E| = 2.9037 Eh)
     assert err < r.error_bar_hartree < 100 * err
-    assert trusted_digits(r.energy_hartree, r.error_bar_hartree) >= 18  # measured: 18, bar 33x
+    assert trusted_digits(r.energy_hartree, r.error_bar_hartree) >= 18  # measured: 18, bar 39x the error
 
 
 def test_clear_errors_for_unservable_requests():

@@ -258,3 +258,18 @@ def test_pairwise_matrices_equal_the_core_builder(uniform_exponents):
             "laplacian": [("laplacian", [(1.0, (0, 0, 0))])]})
         for form in forms.values():
             assert np.max(np.abs(form - core.kinetic)) <= 1e-13 * np.max(np.abs(core.kinetic))
+
+
+def test_refined_eigenvector_is_kept_and_reused():
+    """The solve keeps its refined eigenvector; the expectation values reuse it instead of
+    repeating the refinement, so they see the extended-precision vector when one was made."""
+    from twoel import solve
+
+    r = solve(2, "1^1S", family="exponential", size=60, precision="extended", error_bar=False)
+    wf = r.wavefunction
+    assert wf.refined_coefficients.shape == (60,)
+    assert wf.refined_energy_hartree == r.energy_hartree
+    v = expectation_values(r)
+    assert any(repr(r.energy_hartree) in note for note in v.notes)
+    plain = expectation_values(wf.__class__(wf.basis, wf.coefficients), 2.0, refine=True)
+    assert plain.inv_r12 == pytest.approx(v.inv_r12, rel=1e-10)  # mixed and extended vectors agree

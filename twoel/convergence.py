@@ -175,10 +175,22 @@ class ConvergenceStudy:
             "digits": self.digits, "reliable": self.reliable, "note": self.note,
             "reference_hartree": self.reference_hartree, "reference_text": self.reference_text,
             "reference_source": self.reference_source,
-            "true_error_hartree": (None if self.reference_hartree is None
-                                   else self.variational_hartree - self.reference_hartree),
+            "true_error_hartree": self.true_error_hartree(),
             "provenance": self.provenance,
         }
+
+    def true_error_hartree(self) -> float | None:
+        """Last energy minus the reference (Eh), from their decimal texts (beyond float64)."""
+        if self.reference_hartree is None:
+            return None
+        import mpmath
+
+        reference = self.reference_text or repr(self.reference_hartree)
+        try:
+            with mpmath.workdps(60):
+                return float(mpmath.mpf(self.energy_texts[-1]) - mpmath.mpf(reference))
+        except (ValueError, TypeError):
+            return self.variational_hartree - self.reference_hartree
 
     def to_frame(self):
         """A :class:`pandas.DataFrame` with one row per basis size."""

@@ -235,7 +235,10 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         warnings=tuple(warn_list), notes=tuple(notes),
         energy_hartree_text=energy_text, error_bar_hartree=error_value,
         elapsed_seconds=time.perf_counter() - started, provenance=provenance,
-        wavefunction=Wavefunction(basis, eig.vectors[:, state.root].copy()),
+        wavefunction=Wavefunction(
+            basis, eig.vectors[:, state.root].copy(),
+            None if refined is None else np.asarray(refined.vector, dtype=float).copy(),
+            None if refined is None else refined.energy_hartree),
     )
 
 

@@ -229,20 +229,29 @@ def _refinable(basis, repulsion: float) -> bool:
             and not np.any(basis.powers) and basis.size <= 2000)
 
 
-def _refine(basis, mats, c: np.ndarray, Z: float) -> tuple[dict, float, float]:
-    """Refined eigenvector (mixed double-double / 128-bit step) and double-double moments."""
-    from .eigen import solve_generalized
+def _refine(basis, mats, c: np.ndarray, Z: float, kept=None) -> tuple[dict, float, float]:
+    """Refined eigenvector and double-double moments.
+
+    ``kept`` is ``(vector, energy)`` of the refinement the solve already made (mixed or
+    extended precision, see :class:`twoel.results.Wavefunction`); otherwise the mixed
+    double-double / 128-bit step is taken here.
+    """
     from .integrals.doubledouble import DD, dd_dot, dd_matvec
     from .integrals.precise import dd_matrices
-    from .precision import mixed_refine
     from .properties_precise import refined_moments
 
-    S = mats["overlap"]
-    H = mats["kinetic"] - Z * mats["nuclear"] + mats["repulsion"]
-    eig = solve_generalized(H, S)
-    root = int(np.argmax(np.abs(eig.vectors.T @ (S @ c))))
-    refined = mixed_refine(basis.exponents, basis.sign, Z, eig, root)
-    vector = np.asarray(refined.vector, dtype=float)
+    if kept is not None:
+        vector, energy = np.asarray(kept[0], dtype=float), float(kept[1])
+    else:
+        from .eigen import solve_generalized
+        from .precision import mixed_refine
+
+        S = mats["overlap"]
+        H = mats["kinetic"] - Z * mats["nuclear"] + mats["repulsion"]
+        eig = solve_generalized(H, S)
+        root = int(np.argmax(np.abs(eig.vectors.T @ (S @ c))))
+        refined = mixed_refine(basis.exponents, basis.sign, Z, eig, root)
+        vector, energy = np.asarray(refined.vector, dtype=float), float(refined.energy_hartree)
     moments = refined_moments(basis, vector)
     dd = dd_matrices(basis.exponents, basis.sign)
     x = DD(vector)
@@ -255,7 +264,7 @@ def _refine(basis, mats, c: np.ndarray, Z: float) -> tuple[dict, float, float]:
     T = quad(dd["kinetic"]) * norm
     V = (quad(dd["repulsion"]) - quad(dd["nuclear"]) * DD(Z)) * norm
     virial = -(V * T.reciprocal())
-    return moments, float(virial.hi + virial.lo), float(refined.energy_hartree)
+    return moments, float(virial.hi + virial.lo), energy
 
 
 def expectation_values(result_or_wavefunction, Z: float | None = None, *,
@@ -340,7 +349,11 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
         if not _refinable(basis, repulsion):
             raise UnsupportedError("refinement needs a zero-power, uncontracted S basis and the "
                                    "physical Hamiltonian (repulsion = 1)")
-        moments, virial_ratio, E_refined = _refine(basis, mats, c, Z)
+        wavefunction = (result_or_wavefunction.wavefunction
+                        if isinstance(result_or_wavefunction, EnergyResult) else result_or_wavefunction)
+        kept = getattr(wavefunction, "refined_coefficients", None)
+        kept = None if kept is None else (kept, wavefunction.refined_energy_hartree)
+        moments, virial_ratio, E_refined = _refine(basis, mats, c, Z, kept)
         v.update(moments)
         notes.append(f"⟨r1⟩, ⟨r1²⟩, ⟨1/r1⟩, ⟨r12⟩, ⟨r12²⟩, ⟨1/r12⟩ and the virial ratio use the refined "
                      f"eigenvector in double-double (refined energy {E_refined!r} Eh; float64 "

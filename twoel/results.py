@@ -34,10 +34,17 @@ def agreeing_digits(value: float, reference: float) -> int:
 
 @dataclass(frozen=True)
 class Wavefunction:
-    """A basis and the linear coefficients of one root (normalized, ``c^T S c = 1``)."""
+    """A basis and the linear coefficients of one root (normalized, ``c^T S c = 1``).
+
+    ``refined_coefficients`` and ``refined_energy_hartree`` (Eh) hold the eigenvector and energy
+    of the refinement beyond float64 (mixed or extended precision) when the solve made one; the
+    coefficients are in the primitive basis, not normalized (their scale is arbitrary).
+    """
 
     basis: Any
     coefficients: np.ndarray
+    refined_coefficients: np.ndarray | None = None
+    refined_energy_hartree: float | None = None
 
 
 @dataclass(frozen=True)

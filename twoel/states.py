@@ -83,8 +83,8 @@ def recommended_size(Z, state: State) -> int:
     from .basis.excited_boxes import stored_entry
 
     entry = stored_entry(Ion.parse(Z).Z, state) if state.n > 1 or state.L > 0 else None
-    if entry is not None and entry.get("recommended_size"):
-        return int(entry["recommended_size"])
+    if entry is not None and entry.extra.get("recommended_size"):
+        return int(entry.extra["recommended_size"])
     return DEFAULT_SIZE.get(state.L, 600)
 
 

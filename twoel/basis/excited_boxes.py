@@ -18,18 +18,15 @@ outer ones by ``(Z - 1)``; the result is marked ``"scaled"`` and is a starting p
 
 from __future__ import annotations
 
-import json
 import math
-from dataclasses import dataclass
-from functools import lru_cache
 
 import numpy as np
 
 from ..errors import InputError, UnsupportedError
-from ..reference import data_root
 from ..system import Ion, State
+from . import exponential_boxes as stored
 from .base import Parameter
-# one schema, one box type and one edge naming for every data/exponential_boxes*.json file
+# one schema, one box type, one edge naming and one loader for every data/exponential_boxes*.json
 from .exponential_boxes import EDGE_FLOOR, EDGE_KEYS, SCHEMA, Box  # noqa: F401
 
 DATA_FILE = "exponential_boxes_excited.json"
@@ -50,38 +47,21 @@ def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: boo
     return sequence(boxes, size, -1 if guard_triplet else 1)
 
 
-@lru_cache(maxsize=None)
-def _table() -> dict:
-    """All stored sets of every ``data/exponential_boxes*.json`` file by ``(Z, state)``.
+def stored_entry(Z: float, state: State):
+    """The stored :class:`~twoel.basis.exponential_boxes.BoxSet` for ``(Z, state)`` or ``None``.
 
-    As in the ``exponential`` family's loader, the set optimized on the larger basis wins
-    (ties: the first file in name order), so both code paths build the same basis.
+    Read by the one loader of every ``data/exponential_boxes*.json`` file
+    (:func:`twoel.basis.exponential_boxes.stored_sets`), so the excited-state and ground-state
+    code paths see the same sets under the same rules.
     """
-    root = data_root()
-    names = sorted(p.name for p in root.iterdir()
-                   if p.name.startswith("exponential_boxes") and p.name.endswith(".json"))
-    table: dict = {}
-    for name in names:
-        data = json.loads(root.joinpath(name).read_text(encoding="utf-8"))
-        if data.get("schema") != SCHEMA:
-            raise InputError(f"{name}: unknown schema {data.get('schema')!r} (expected {SCHEMA})")
-        for entry in data.get("sets", []):
-            key = (float(entry["Z"]), State.parse(entry["state"]).label)
-            old = table.get(key)
-            if old is None or (entry.get("optimized_size") or 0) > (old.get("optimized_size") or 0):
-                table[key] = dict(entry, source_file=name)
-    return table
+    return stored.stored_sets().get((float(Z), state.label))
 
 
-def stored_entry(Z: float, state: State) -> dict | None:
-    """The stored entry for ``(Z, state)`` or ``None``."""
-    return _table().get((float(Z), state.label))
-
-
-def boxes_from_entry(entry: dict) -> list[Box]:
-    return [Box(alpha=tuple(b["alpha"]), beta=tuple(b["beta"]), gamma=tuple(b["gamma"]),
-                fraction=float(b["fraction"]))
-            for b in entry["boxes"]]
+def boxes_from_entry(entry) -> list[Box]:
+    """The boxes of a stored set, or of a JSON set entry (a dict with a ``boxes`` list)."""
+    if isinstance(entry, dict):
+        return stored.parse_boxes(entry.get("boxes", []), "box set")
+    return list(entry.boxes)
 
 
 def default_boxes(ion: Ion, state: State) -> tuple[list[Box], str]:
@@ -97,8 +77,7 @@ def default_boxes(ion: Ion, state: State) -> tuple[list[Box], str]:
             fa = ion.Z / 2 if b.alpha[1] > 1.2 else max(ion.Z - 1.0, 0.05)
             fb = ion.Z / 2 if b.beta[1] > 1.2 else max(ion.Z - 1.0, 0.05)
             fg = ion.Z / 2 if inner else 1.0
-            boxes.append(Box(alpha=(b.alpha[0] * fa, b.alpha[1] * fa), beta=(b.beta[0] * fb, b.beta[1] * fb),
-                             gamma=(b.gamma[0] * fg, b.gamma[1] * fg), fraction=b.fraction))
+            boxes.append(b.scaled(fa, fb, fg))
         return boxes, "scaled"
     return generic_boxes(ion, state), "generic"
 
@@ -139,7 +118,7 @@ def boxes_from_values(template: list[Box], values: dict[str, float]) -> list[Box
             if bounds[lo] > bounds[hi]:
                 bounds[lo], bounds[hi] = bounds[hi], bounds[lo]
         out.append(Box(alpha=(bounds[0], bounds[1]), beta=(bounds[2], bounds[3]), gamma=(bounds[4], bounds[5]),
-                       fraction=box.fraction))
+                       fraction=box.fraction, from_size=box.from_size))
     return out
 
 

@@ -25,6 +25,7 @@ P states (``L = 1``) are served by :mod:`twoel.basis.exponential_p` when that mo
 from __future__ import annotations
 
 import importlib
+from functools import lru_cache
 from math import isqrt
 
 import numpy as np
@@ -63,7 +64,7 @@ def box_exponents(boxes, size: int, sign: int) -> np.ndarray:
     Box ``k`` receives ``round(fraction_k · size)`` terms (the last box takes the rest).  For
     triplets (``sign = -1``) terms are ordered ``α > β`` and nearly symmetric ones skipped.
     """
-    counts = box_counts([b.fraction for b in boxes], size)
+    counts = box_counts([b.fraction for b in boxes], size, [b.from_size for b in boxes])
     rows = []
     for box, count in zip(boxes, counts):
         if count == 0:
@@ -90,12 +91,43 @@ def box_exponents(boxes, size: int, sign: int) -> np.ndarray:
     return np.array(rows, dtype=float)
 
 
-def box_counts(fractions, size: int) -> list[int]:
-    """Split ``size`` terms over boxes in proportion to ``fractions`` (deterministic)."""
-    fractions = np.asarray(fractions, dtype=float)
-    cumulative = np.rint(np.cumsum(fractions) / fractions.sum() * size).astype(int)
-    counts = np.diff(np.concatenate([[0], cumulative]))
-    return [int(c) for c in counts]
+def box_counts(fractions, size: int, from_sizes=None) -> list[int]:
+    """Split ``size`` terms over boxes (deterministic; nested: no count falls as ``size`` grows).
+
+    Without later boxes (every ``from_size`` 0) the split is in proportion to ``fractions``.
+    A later box ``k`` (``from_sizes[k] = s_k > 0``) aims at ``fractions[k]·max(N - s_k, 0)``
+    terms and the usual boxes share the rest in proportion to their fractions.  The terms are
+    then dealt one at a time, term ``j`` to the box furthest below its aim at ``N = j``, so the
+    basis of ``N`` terms is the first ``N`` of every larger one.
+    """
+    if from_sizes is None or not any(from_sizes):
+        fractions = np.asarray(fractions, dtype=float)
+        cumulative = np.rint(np.cumsum(fractions) / fractions.sum() * size).astype(int)
+        counts = np.diff(np.concatenate([[0], cumulative]))
+        return [int(c) for c in counts]
+    return list(_dealt_counts(tuple(float(f) for f in fractions),
+                              tuple(int(s) for s in from_sizes), int(size)))
+
+
+@lru_cache(maxsize=64)
+def _dealt_counts(fractions: tuple, starts: tuple, size: int) -> tuple:
+    later = [k for k, s in enumerate(starts) if s > 0]
+    usual = [k for k, s in enumerate(starts) if s == 0]
+    usual_total = sum(fractions[k] for k in usual)
+    if not usual or sum(fractions[k] for k in later) > 1:
+        raise InputError("boxes need one with from_size 0, and later-box fractions summing to <= 1")
+    counts = [0] * len(fractions)
+    aims = [0.0] * len(fractions)
+    for j in range(1, size + 1):
+        taken = 0.0
+        for k in later:
+            aims[k] = fractions[k] * max(j - starts[k], 0)
+            taken += aims[k]
+        for k in usual:
+            aims[k] = (j - taken) * fractions[k] / usual_total
+        best = max(range(len(counts)), key=lambda k: (aims[k] - counts[k], -k))
+        counts[best] += 1
+    return tuple(counts)
 
 
 def _p_module():

@@ -34,25 +34,42 @@ EDGE_FLOOR = 1e-4
 
 @dataclass(frozen=True)
 class Box:
-    """One box ``[α_min, α_max] × [β_min, β_max] × [γ_min, γ_max]`` (bohr⁻¹) and its share."""
+    """One box ``[α_min, α_max] × [β_min, β_max] × [γ_min, γ_max]`` (bohr⁻¹) and its share.
+
+    ``from_size = 0`` (the usual box): the box takes ``fraction`` (normalized over the other
+    such boxes) of the terms not taken by later boxes.  ``from_size = s > 0`` (a *later* box):
+    it takes ``fraction`` of the terms beyond the first ``s``, so bases of ``N <= s`` terms do
+    not see it (:func:`twoel.basis.exponential.box_counts`).  Large bases need exponent regions
+    that would only dilute small ones.
+    """
 
     alpha: tuple[float, float]
     beta: tuple[float, float]
     gamma: tuple[float, float]
     fraction: float
+    from_size: int = 0
 
     def edges(self) -> tuple[float, ...]:
         return (*self.alpha, *self.beta, *self.gamma)
 
     def to_dict(self) -> dict:
-        return {"fraction": self.fraction, "alpha": list(self.alpha), "beta": list(self.beta),
-                "gamma": list(self.gamma)}
+        out = {"fraction": self.fraction, "alpha": list(self.alpha), "beta": list(self.beta),
+               "gamma": list(self.gamma)}
+        if self.from_size:
+            out["from_size"] = self.from_size
+        return out
+
+    def scaled(self, alpha: float, beta: float, gamma: float) -> "Box":
+        """The box with its α, β, γ edges multiplied by the given factors (same share)."""
+        return replace(self, alpha=(self.alpha[0] * alpha, self.alpha[1] * alpha),
+                       beta=(self.beta[0] * beta, self.beta[1] * beta),
+                       gamma=(self.gamma[0] * gamma, self.gamma[1] * gamma))
 
     @classmethod
-    def from_edges(cls, edges, fraction: float) -> "Box":
+    def from_edges(cls, edges, fraction: float, from_size: int = 0) -> "Box":
         e = [float(x) for x in edges]
         pairs = [tuple(sorted(e[k:k + 2])) for k in (0, 2, 4)]
-        return cls(pairs[0], pairs[1], pairs[2], float(fraction))
+        return cls(pairs[0], pairs[1], pairs[2], float(fraction), int(from_size))
 
 
 @dataclass(frozen=True)
@@ -83,7 +100,7 @@ class BoxSet:
         boxes = []
         for k, box in enumerate(self.boxes, start=1):
             edges = [float(values.get(f"box{k}_{key}", v)) for key, v in zip(EDGE_KEYS, box.edges())]
-            boxes.append(Box.from_edges(edges, box.fraction))
+            boxes.append(Box.from_edges(edges, box.fraction, box.from_size))
         return replace(self, boxes=tuple(boxes))
 
     def provenance(self) -> dict:
@@ -100,6 +117,30 @@ class BoxSet:
         return out
 
 
+def parse_boxes(entries, where: str = "boxes") -> list[Box]:
+    """Validate a JSON list of boxes (``fraction``, ``alpha``, ``beta``, ``gamma``, optional
+    ``from_size``) and return :class:`Box` objects."""
+    boxes = []
+    for box in entries:
+        edges = [*box["alpha"], *box["beta"], *box["gamma"]]
+        if len(edges) != 6 or not all(isinstance(x, (int, float)) and not isinstance(x, bool)
+                                      for x in edges):
+            raise InputError(f"{where}: each box needs alpha, beta, gamma as [min, max]")
+        if min(edges) < 0 or not 0 < float(box["fraction"]) <= 1:
+            raise InputError(f"{where}: box edges must be >= 0 and 0 < fraction <= 1")
+        start = box.get("from_size", 0)
+        if isinstance(start, bool) or not isinstance(start, int) or start < 0:
+            raise InputError(f"{where}: from_size must be a non-negative integer, got {start!r}")
+        boxes.append(Box.from_edges(edges, box["fraction"], start))
+    if not boxes:
+        raise InputError(f"{where}: no boxes")
+    if all(b.from_size for b in boxes):
+        raise InputError(f"{where}: at least one box needs from_size 0")
+    if sum(b.fraction for b in boxes if b.from_size) > 1:
+        raise InputError(f"{where}: the fractions of the later boxes (from_size > 0) exceed 1")
+    return boxes
+
+
 def parse_box_file(text: str, name: str = "<text>") -> list[BoxSet]:
     """Parse and validate one ``exponential_boxes*.json`` document."""
     try:
@@ -114,18 +155,9 @@ def parse_box_file(text: str, name: str = "<text>") -> list[BoxSet]:
         try:
             Z = float(entry["Z"])
             state = State.parse(entry["state"]).label
-            boxes = []
-            for box in entry["boxes"]:
-                edges = [*box["alpha"], *box["beta"], *box["gamma"]]
-                if len(edges) != 6 or not all(isinstance(x, (int, float)) for x in edges):
-                    raise InputError(f"{where}: each box needs alpha, beta, gamma as [min, max]")
-                if min(edges) < 0 or not 0 < float(box["fraction"]) <= 1:
-                    raise InputError(f"{where}: box edges must be >= 0 and 0 < fraction <= 1")
-                boxes.append(Box.from_edges(edges, box["fraction"]))
+            boxes = parse_boxes(entry["boxes"], where)
         except (KeyError, TypeError, ValueError) as exc:
             raise InputError(f"{where}: malformed entry ({exc})")
-        if not boxes:
-            raise InputError(f"{where}: no boxes")
         known = {"Z", "state", "boxes", "optimized_size", "energy_hartree", "method", "date"}
         sets.append(BoxSet(Z, state, tuple(boxes), entry.get("optimized_size"),
                            entry.get("energy_hartree"), str(entry.get("method", "")),
@@ -182,8 +214,7 @@ def box_set_for(ion: Ion, state: State) -> BoxSet:
     if same_state:
         nearest = min(same_state, key=lambda s: (abs(s.Z - ion.Z), s.Z))
         f = ion.Z / nearest.Z
-        boxes = tuple(Box((b.alpha[0] * f, b.alpha[1] * f), (b.beta[0] * f, b.beta[1] * f),
-                          (b.gamma[0] * f, b.gamma[1] * f), b.fraction) for b in nearest.boxes)
+        boxes = tuple(b.scaled(f, f, f) for b in nearest.boxes)
         return replace(nearest, Z=ion.Z, boxes=boxes, origin=f"scaled from Z = {nearest.Z:g}",
                        energy_hartree=None)
     return generic_boxes(ion, state)

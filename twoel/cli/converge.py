@@ -50,8 +50,10 @@ def table_text(study) -> str:
         dt = "" if d is None else f"{d:.3e}"
         qt = "" if q is None else f"{q:.3f}"
         lines.append(f"{n:>6}  {t:<34} {dt:>13}  {qt:>7}  {s:>7.2f}")
-    lines.append(f"variational (upper bound) E = {study.variational_hartree!r} Eh "
-                 f"± {study.variational_error_bar_hartree:.1e} (estimated truncation + arithmetic)")
+    bar = study.variational_error_bar_hartree
+    last = truncate_text(study.energy_texts[-1], bar) if bar else repr(study.variational_hartree)
+    lines.append(f"variational (upper bound) E = {last} Eh "
+                 f"± {bar:.1e} (estimated truncation + arithmetic)")
     lines.append(f"extrapolated E = {study.extrapolated_hartree!r} Eh ± {study.extrapolated_error_bar_hartree:.1e}")
     lines.append(f"digits stood behind: {study.digits}")
     if study.note:
@@ -60,7 +62,7 @@ def table_text(study) -> str:
         lines.append("warning: the sequence is not regular; the error bar may not be trustworthy")
     if study.reference_hartree is not None:
         lines.append(f"reference: {study.reference_text} Eh [{study.reference_source}]  "
-                     f"true error of the last energy: {study.variational_hartree - study.reference_hartree:+.2e} Eh")
+                     f"true error of the last energy: {study.true_error_hartree():+.2e} Eh")
     return "\n".join(lines) + "\n"
 
 
