@@ -203,9 +203,7 @@ class PairIntegrals:
 
     def __init__(self, alpha, beta, gamma):
         alpha, beta, gamma = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (alpha, beta, gamma)))
-        self._setup(alpha + beta, beta + gamma, gamma + alpha)
-
-    def _setup(self, A, B, C) -> None:
+        A, B, C = alpha + beta, beta + gamma, gamma + alpha
         self.shape = A.shape
         self.A, self.B, self.C = A, B, C
         if np.any(A <= 0) or np.any(B <= 0) or np.any(C <= 0):
@@ -213,12 +211,6 @@ class PairIntegrals:
         self._inv = {name: _Powers(1.0 / x) for name, x in (("A", A), ("B", B), ("C", C))}
         self._k: dict = {}
         self._cache: dict = {}
-
-    def subset(self, mask: np.ndarray) -> "PairIntegrals":
-        """The integrals of the pairs selected by a boolean mask (flattened)."""
-        sub = PairIntegrals.__new__(PairIntegrals)
-        sub._setup(*(x.reshape(-1)[mask] for x in (self.A, self.B, self.C)))
-        return sub
 
     def __call__(self, a: int, b: int, c: int) -> np.ndarray:
         """``I(a, b, c)`` for every exponent triple; at most one index may be -2."""
