@@ -10,8 +10,8 @@ as :mod:`twoel.basis.exponential_p` so that the ``exponential`` family can deleg
     build(ion, state, size, values, options) -> CorrelatedBasis
 
 The basis is a :class:`twoel.matrices.CorrelatedBasis` with zero powers; its ``matrices()`` are
-computed by the pair-wise closed forms of :mod:`twoel.operators` (same numbers as the generic
-builder, checked in the tests, several times faster).
+computed by the pair evaluator :mod:`twoel.integrals.pairs` through
+:func:`twoel.operators.hamiltonian_matrices`.
 """
 
 from __future__ import annotations
