@@ -181,3 +181,23 @@ def test_clear_errors_for_unservable_requests():
     assert main(["energy", "--Z", "2", "--family", "exponential", "--state", "2^1P",
                  "--precision", "extended"]) == 2  # extended precision serves S states only
     assert main(["energy", "--Z", "2", "--family", "exponential", "--digits", "20"]) == 2
+
+
+def test_optimize_keeps_the_starting_edges_when_they_are_lower(monkeypatch):
+    """The optimizer sees only the float64 energy; if its edges refine to a higher energy than
+    the starting (stored) ones, the variational principle keeps the starting ones and says so."""
+    from twoel import pipeline
+    from twoel.optimize import OptimizationRecord
+
+    def poor_optimizer(energy, params, progress=None, **_):
+        # a deliberately poor point that the virial rescaling cannot undo (one box moved)
+        values = {p.name: p.initial * (1.5 if p.name.startswith("box1_") else 1.0) for p in params}
+        return values, energy(values), OptimizationRecord("test", 1, True, "", {}, values)
+
+    monkeypatch.setattr(pipeline, "minimize_energy", poor_optimizer)
+    stored = twoel.solve(2, "1^1S", "exponential", 60, error_bar=False)
+    r = twoel.solve(2, "1^1S", "exponential", 60, optimize=True, error_bar=False)
+    assert r.energy_hartree == stored.energy_hartree
+    assert r.parameters == stored.parameters
+    assert any("starting edges are kept" in w for w in r.warnings)
+    assert r.optimizer["kept_start"] is True

@@ -163,15 +163,34 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     if precision == "extended" and not high:
         raise UnsupportedError("precision='extended' needs the exponential family (S states)")
     bar = None
+    kept_start = None
     if high:
         refined = _refine(basis, ion, state, eig, precision, digit_target, stage=stage)
         energy_value = refined.energy_hartree
+        if record is not None:
+            # the optimizer minimized the float64 energy, blind below ~1e-10 Eh: if the starting
+            # (stored) edges give the lower refined energy, the variational principle prefers them
+            start_values = {p.name: p.initial for p in params}
+            stage(f"comparing with the starting box edges, N = {size}")
+            b0, m0, e0 = _evaluate(fam, ion, state, size, start_values, options, drop_threshold)
+            r0 = _refine(b0, ion, state, e0, precision, digit_target)
+            if r0.energy_hartree < refined.energy_hartree:
+                kept_start = (refined.energy_hartree, r0.energy_hartree)
+                basis, matrices, eig, values, refined = b0, m0, e0, start_values, r0
+                energy_value = refined.energy_hartree
+                kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
+                record["kept_start"] = True
         if error_bar is None or error_bar:
             bar = _error_bar(fam, ion, state, size, values, options, drop_threshold, precision,
                              digit_target, refined, stage)
     warn_list, notes = [], []
     if ion.note:
         notes.append(ion.note)
+    if kept_start is not None:
+        warn_list.append(f"--optimize found box edges whose refined energy ({kept_start[0]!r} Eh) is "
+                         f"above that of the starting edges ({kept_start[1]!r} Eh): the optimizer "
+                         "minimizes the float64 energy, which cannot see below ~1e-10 Eh; the "
+                         "starting edges are kept")
     if eig.condition_number > ILL_CONDITIONED and refined is None:
         text = (f"overlap condition number {eig.condition_number:.1e} (diagonally scaled): the basis "
                 "is nearly linearly dependent and the last float64 digits of the energy may be noise")
