@@ -115,10 +115,7 @@ def boxes_from_values(template: list[Box], values: dict[str, float]) -> list[Box
         for lo, hi, what in ((0, 1, "alpha"), (2, 3, "beta"), (4, 5, "gamma")):
             if not (math.isfinite(bounds[lo]) and math.isfinite(bounds[hi])):
                 raise InputError(f"box {number} {what} bounds must be finite")
-            if bounds[lo] > bounds[hi]:
-                bounds[lo], bounds[hi] = bounds[hi], bounds[lo]
-        out.append(Box(alpha=(bounds[0], bounds[1]), beta=(bounds[2], bounds[3]), gamma=(bounds[4], bounds[5]),
-                       fraction=box.fraction, from_size=box.from_size))
+        out.append(Box.from_edges(bounds, box.fraction, box.from_size))  # orders each [min, max]
     return out
 
 

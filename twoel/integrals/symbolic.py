@@ -280,23 +280,18 @@ def zero_power_source() -> str:
         f"DEGREES = {tuple(int(sp.Poly(forms[n], INV_A, INV_B, INV_C).total_degree()) for n in names)!r}",
         "",
         "",
-        "def zero_power_integrals(a, b, c):",
-        '    """Return ``(overlap, nuclear, repulsion, kinetic_1, kinetic_2)`` divided by 16π²."""',
     ]
-    for symbol, value in replacements:
-        lines.append(f"    {symbol} = {_product_code(value)}")
-    lines.append("    return (")
-    for expr in reduced:
-        lines.append(f"        {_product_code(expr)},")
-    lines += ["    )", ""]
-    lines += ["", "def zero_power_integrals_fixed(a, b, c, P):",
-              '    """As :func:`zero_power_integrals` for integers at scale ``2^P`` (results at ``2^P``)."""']
-    for symbol, value in replacements:
-        lines.append(f"    {symbol} = {_fixed_code(value)}")
-    lines.append("    return (")
-    for expr in reduced:
-        lines.append(f"        {_fixed_code(expr)},")
-    lines += ["    )", ""]
+    # the same common subexpressions rendered twice: float/double-double code and fixed point
+    for gap, header, doc, code in (
+            ([], "def zero_power_integrals(a, b, c):",
+             "Return ``(overlap, nuclear, repulsion, kinetic_1, kinetic_2)`` divided by 16π².",
+             _product_code),
+            ([""], "def zero_power_integrals_fixed(a, b, c, P):",
+             "As :func:`zero_power_integrals` for integers at scale ``2^P`` (results at ``2^P``).",
+             _fixed_code)):
+        lines += gap + [header, f'    """{doc}"""']
+        lines += [f"    {symbol} = {code(value)}" for symbol, value in replacements]
+        lines += ["    return ("] + [f"        {code(expr)}," for expr in reduced] + ["    )", ""]
     for shift in ZERO_POWER_MONOMIALS:
         expr = sp.factor(inverse_sum_form(*shift))
         lines += ["", f"def {_monomial_name(shift)}(a, b, c):",
