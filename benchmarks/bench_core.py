@@ -16,7 +16,7 @@ import numpy as np
 
 import twoel
 from twoel.basis import get_family
-from twoel.eigen import solve_generalized
+from twoel.solver.eigen import solve_generalized
 from twoel.system import GROUND, Ion
 
 HE_EXACT = -2.903724377034119598  # Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)

@@ -47,7 +47,7 @@ def _evaluators():
         properties = pairs.operator_matrices
     else:
         from twoel.corrections.integrals import basis_matrices
-        from twoel.operators import operator_matrices as properties
+        from twoel.integrals.hamiltonian import operator_matrices as properties
         corrections = lambda basis: basis_matrices(basis, specs)  # noqa: E731
     return corrections, properties
 
@@ -56,8 +56,8 @@ def measure(repeat: int) -> dict:
     warnings.simplefilter("ignore")
     from twoel.basis import get_family
     from twoel.corrections.spectrum import preset_basis
-    from twoel.matrices import build_matrices
-    from twoel.properties import _operators
+    from twoel.basis.correlated import build_matrices
+    from twoel.properties.expectation import _operators
     from twoel.system import GROUND, Ion, State
 
     ion = Ion(2)

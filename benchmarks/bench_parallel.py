@@ -1,4 +1,4 @@
-"""Speed-up of a parallel sweep over Z (twoel.sweep.solve_many) on this machine's cores.
+"""Speed-up of a parallel sweep over Z (twoel.analysis.sweep.solve_many) on this machine's cores.
 
 Runs the same isoelectronic sweep serially and with N worker processes, checks that the energies
 are bit-for-bit identical, and prints wall times and the ratio.  Both runs use one BLAS thread
@@ -26,7 +26,7 @@ from pathlib import Path  # noqa: E402
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from twoel.sweep import solve_many  # noqa: E402
+from twoel.analysis.sweep import solve_many  # noqa: E402
 from twoel.system import parse_charge_range  # noqa: E402
 
 

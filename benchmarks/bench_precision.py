@@ -40,9 +40,9 @@ def main() -> int:
 
     import numpy as np
 
-    from twoel import precision
+    from twoel.solver import refine as precision
     from twoel.basis import get_family
-    from twoel.eigen import solve_generalized
+    from twoel.solver.eigen import solve_generalized
     from twoel.system import Ion, State
 
     fam = get_family("exponential")
@@ -90,7 +90,7 @@ def full_run(size: int, digits: int) -> None:
     import numpy as np
 
     import twoel
-    from twoel.convergence import trusted_digits
+    from twoel.analysis.convergence import trusted_digits
 
     print(f"\nwhole solve, N = {size}, extended precision, digits = {digits}, with the error bar "
           "(nested N/2, N/√2):")

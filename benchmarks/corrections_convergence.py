@@ -21,10 +21,10 @@ sys.path.insert(0, str(Path(__file__).resolve().parent.parent))  # use this chec
 import numpy as np
 
 from twoel.corrections.finite_mass import finite_mass_energy
-from twoel.corrections.operators import operator_values
+from twoel.properties.operators import operator_values
 from twoel.corrections.quadrature import quadrature_expectations
-from twoel.eigen import solve_generalized
-from twoel.matrices import CorrelatedBasis, build_matrices
+from twoel.solver.eigen import solve_generalized
+from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.results import Wavefunction
 from twoel.system import State
 

@@ -16,8 +16,8 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from twoel.properties import expectation_values  # noqa: E402
-from twoel.states import solve_state  # noqa: E402
+from twoel.properties.expectation import expectation_values  # noqa: E402
+from twoel.analysis.transitions import solve_state  # noqa: E402
 
 
 def main(argv=None) -> None:

@@ -7,7 +7,7 @@ The numbers in data/hartree_fock_limits.csv marked "computed by twoel" come from
 import sys
 import time
 
-from twoel.hartree_fock import hartree_fock_limit
+from twoel.scf.hartree_fock import hartree_fock_limit
 
 max_size = int(sys.argv[1]) if len(sys.argv) > 1 else 16
 sizes = (1, 2) + tuple(range(4, max_size + 1, 2))

@@ -9,23 +9,23 @@ Everything is in Hartree atomic units (Eh, bohr); laboratory units appear only a
     -2.84765625
 """
 
-from ._version import __version__
-from .basis import family_names, get_family
-from .convergence import ConvergenceStudy, run_study
-from .errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
+from twoel._version import __version__
+from twoel.basis import family_names, get_family
+from twoel.analysis.convergence import ConvergenceStudy, run_study
+from twoel.errors import (AccuracyWarning, ConvergenceError, InputError, LinearDependenceError,
                      NotBoundError, ResourceError, TwoelError, TwoelWarning, UnsupportedError)
-from .pipeline import solve
-from .properties import ExpectationValues, expectation_values
-from .states import Transition, solve_state, transition
-from .results import EnergyResult
-from .sweep import solve_many
-from .system import Ion, State
-from .check_input import read_rows
-from .checking import check_energy, check_rows
-from .correlation import correlation_energy
-from .hartree_fock import hartree_fock_limit
-from .split_shell import split_shell_limit
-from .corrections.spectrum import compute_fine_structure, compute_spectrum
+from twoel.solver.pipeline import solve
+from twoel.properties.expectation import ExpectationValues, expectation_values
+from twoel.analysis.transitions import Transition, solve_state, transition
+from twoel.results import EnergyResult
+from twoel.analysis.sweep import solve_many
+from twoel.system import Ion, State
+from twoel.checking.rows import read_rows
+from twoel.checking.verdicts import check_energy, check_rows
+from twoel.scf.correlation import correlation_energy
+from twoel.scf.hartree_fock import hartree_fock_limit
+from twoel.scf.split_shell import split_shell_limit
+from twoel.corrections.spectrum import compute_fine_structure, compute_spectrum
 
 __all__ = [
     "__version__", "solve", "solve_many", "EnergyResult", "Ion", "State", "family_names", "get_family",

@@ -20,7 +20,7 @@ import shutil
 import tempfile
 from pathlib import Path
 
-from .errors import InputError
+from twoel.errors import InputError
 
 
 def _default_mode(directory: bool = False) -> int:

@@ -15,8 +15,8 @@ from functools import lru_cache
 from importlib import resources
 from pathlib import Path
 
-from .errors import InputError
-from .system import State
+from twoel.errors import InputError
+from twoel.system import State
 
 REQUIRED_COLUMNS = ("key", "Z", "state", "quantity", "value", "unit", "uncertainty", "method",
                     "source", "note")

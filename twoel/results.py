@@ -14,8 +14,8 @@ from typing import Any
 
 import numpy as np
 
-from .reference import ReferenceValue
-from .units import ENERGY_UNITS, hartree_to
+from twoel.reference import ReferenceValue
+from twoel.units import ENERGY_UNITS, hartree_to
 
 
 def agreeing_digits(value: float, reference: float) -> int:

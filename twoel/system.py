@@ -13,7 +13,7 @@ import re
 import unicodedata
 from dataclasses import dataclass
 
-from .errors import InputError
+from twoel.errors import InputError
 
 #: element symbols and names for Z = 1..118
 _ELEMENTS = (

@@ -9,8 +9,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from . import constants as C
-from .errors import InputError
+from twoel import constants as C
+from twoel.errors import InputError
 
 #: energy of one unit, in hartree
 _HARTREE_PER_UNIT = {

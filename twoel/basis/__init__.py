@@ -15,8 +15,8 @@ from __future__ import annotations
 import importlib
 from functools import lru_cache
 
-from ..errors import InputError
-from .base import Basis, Parameter, TrialFamily
+from twoel.errors import InputError
+from twoel.basis.base import Basis, Parameter, TrialFamily
 
 #: modules of twoel.basis that define a ``FAMILY`` object, in display order
 FAMILY_MODULES = ("hydrogenic", "screened", "open_shell", "hylleraas", "exponential")

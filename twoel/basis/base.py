@@ -11,9 +11,9 @@ from abc import ABC, abstractmethod
 from dataclasses import dataclass
 from typing import Any, Protocol
 
-from ..errors import InputError, UnsupportedError
-from ..matrices import SystemMatrices
-from ..system import Ion, State
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.correlated import SystemMatrices
+from twoel.system import Ion, State
 
 
 class Basis(Protocol):

@@ -22,12 +22,12 @@ import math
 
 import numpy as np
 
-from ..errors import InputError, UnsupportedError
-from ..system import Ion, State
-from . import exponential_boxes as stored
-from .base import Parameter
+from twoel.errors import InputError, UnsupportedError
+from twoel.system import Ion, State
+from twoel.basis import exponential_boxes as stored
+from twoel.basis.base import Parameter
 # one schema, one box type, one edge naming and one loader for every data/exponential_boxes*.json
-from .exponential_boxes import EDGE_FLOOR, EDGE_KEYS, SCHEMA, Box  # noqa: F401
+from twoel.basis.exponential_boxes import EDGE_FLOOR, EDGE_KEYS, SCHEMA, Box  # noqa: F401
 
 DATA_FILE = "exponential_boxes_excited.json"
 
@@ -40,7 +40,7 @@ def box_exponents(boxes: list[Box], size: int, sign: int = 1, guard_triplet: boo
     where ``(1 - P12)`` annihilates ``α = β``) each point is ordered ``α > β`` and nearly
     symmetric points are skipped; P states need no guard.
     """
-    from .exponential import box_exponents as sequence
+    from twoel.basis.exponential import box_exponents as sequence
 
     if any(b.fraction <= 0 for b in boxes):
         raise InputError("box fractions must be positive")

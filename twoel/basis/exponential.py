@@ -30,11 +30,11 @@ from math import isqrt
 
 import numpy as np
 
-from ..errors import InputError, UnsupportedError
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from .base import Parameter, TrialFamily
-from . import exponential_boxes as stored
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter, TrialFamily
+from twoel.basis import exponential_boxes as stored
 
 #: primes whose square roots drive the quasi-random sequences of α, β, γ (Korobov 2000)
 PRIMES = (2, 3, 5)

@@ -21,9 +21,9 @@ import json
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
-from ..errors import InputError
-from ..system import Ion, State
-from .base import Parameter
+from twoel.errors import InputError
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter
 
 SCHEMA = "twoel-exponential-boxes/1"
 FILE_PREFIX = "exponential_boxes"
@@ -167,7 +167,7 @@ def parse_box_file(text: str, name: str = "<text>") -> list[BoxSet]:
 
 
 def box_files() -> list[str]:
-    from ..reference import data_root
+    from twoel.reference import data_root
 
     return sorted(p.name for p in data_root().iterdir()
                   if p.name.startswith(FILE_PREFIX) and p.name.endswith(".json"))
@@ -176,7 +176,7 @@ def box_files() -> list[str]:
 @lru_cache(maxsize=None)
 def stored_sets() -> dict[tuple[float, str], BoxSet]:
     """All stored box sets by ``(Z, state label)``."""
-    from ..reference import read_data_text
+    from twoel.reference import read_data_text
 
     table: dict[tuple[float, str], BoxSet] = {}
     for name in box_files():

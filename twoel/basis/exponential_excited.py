@@ -9,9 +9,9 @@ as :mod:`twoel.basis.exponential_p` so that the ``exponential`` family can deleg
     parameters(ion, state, size, options) -> list[Parameter]
     build(ion, state, size, values, options) -> CorrelatedBasis
 
-The basis is a :class:`twoel.matrices.CorrelatedBasis` with zero powers; its ``matrices()`` are
+The basis is a :class:`twoel.basis.correlated.CorrelatedBasis` with zero powers; its ``matrices()`` are
 computed by the pair evaluator :mod:`twoel.integrals.pairs` through
-:func:`twoel.operators.hamiltonian_matrices`.
+:func:`twoel.integrals.hamiltonian.hamiltonian_matrices`.
 """
 
 from __future__ import annotations
@@ -20,11 +20,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..errors import InputError, UnsupportedError
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from . import excited_boxes as xb
-from .base import Parameter
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis import excited_boxes as xb
+from twoel.basis.base import Parameter
 
 
 @dataclass(frozen=True)
@@ -32,7 +32,7 @@ class ExponentialSBasis(CorrelatedBasis):
     """A zero-power :class:`CorrelatedBasis` whose matrices use the pair-wise path."""
 
     def matrices(self):
-        from ..operators import hamiltonian_matrices
+        from twoel.integrals.hamiltonian import hamiltonian_matrices
 
         return hamiltonian_matrices(self)
 
@@ -55,7 +55,7 @@ def basis_from_boxes(boxes, state: State, size: int):
     if state.L == 0:
         return ExponentialSBasis(np.zeros(exps.shape, dtype=int), exps, sign=state.exchange_sign)
     if state.L == 1:
-        from ..pbasis import PBasis
+        from twoel.basis.p_basis import PBasis
 
         return PBasis(exps, sign=state.exchange_sign)
     raise UnsupportedError(f"no exponential basis for L = {state.L} ({state.label})")

@@ -1,7 +1,7 @@
 r"""Exponential bases for P states (L = 1, odd parity): ``n¹P`` and ``n³P``.
 
 Functions ``z1 e^{-α_i r1 - β_i r2 - γ_i r12} ± (1 <-> 2)`` (the M = 0 component; see
-:class:`twoel.pbasis.PBasis`), exponents from quasi-random boxes
+:class:`twoel.basis.p_basis.PBasis`), exponents from quasi-random boxes
 (:mod:`twoel.basis.excited_boxes`; ``α`` belongs to the ``p`` electron, ``β`` to the ``1s``
 one).  Interface used by the ``exponential`` family::
 
@@ -13,11 +13,11 @@ The ``n``-th P root of a symmetry block is ``state.root = n - 2``.
 
 from __future__ import annotations
 
-from ..errors import UnsupportedError
-from ..pbasis import PBasis
-from ..system import Ion, State
-from .base import Parameter
-from .exponential_excited import build_from_stored, origin, stored_parameters  # noqa: F401
+from twoel.errors import UnsupportedError
+from twoel.basis.p_basis import PBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter
+from twoel.basis.exponential_excited import build_from_stored, origin, stored_parameters  # noqa: F401
 
 
 def _check(state: State) -> None:

@@ -7,9 +7,9 @@ Two-Electron Atoms, 1957, §32).  No nonlinear parameter.
 
 from __future__ import annotations
 
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from .base import Parameter, TrialFamily
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter, TrialFamily
 
 
 class HydrogenicFamily(TrialFamily):

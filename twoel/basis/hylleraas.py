@@ -23,10 +23,10 @@ from math import comb
 
 import numpy as np
 
-from ..errors import InputError, UnsupportedError
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from .base import Parameter, TrialFamily
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter, TrialFamily
 
 
 def omega_terms(omega: int, one_exponent: bool, sign: int) -> list[tuple[int, int, int]]:

@@ -7,10 +7,10 @@ The singlet form (Eckart, Phys. Rev. 36, 878 (1930); Chandrasekhar, Astrophys. J
 
 from __future__ import annotations
 
-from ..errors import UnsupportedError
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from .base import Parameter, TrialFamily
+from twoel.errors import UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter, TrialFamily
 
 
 class OpenShellFamily(TrialFamily):

@@ -7,9 +7,9 @@ every other nonlinear parameter, so this family also tests the optimizer against
 
 from __future__ import annotations
 
-from ..matrices import CorrelatedBasis
-from ..system import Ion, State
-from .base import Parameter, TrialFamily
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.system import Ion, State
+from twoel.basis.base import Parameter, TrialFamily
 
 
 class ScreenedFamily(TrialFamily):

@@ -11,9 +11,9 @@ import importlib
 import sys
 import warnings
 
-from .._version import __version__
-from ..errors import TwoelError
-from .common import TwoelArgumentParser
+from twoel._version import __version__
+from twoel.errors import TwoelError
+from twoel.cli.common import TwoelArgumentParser
 
 #: modules of twoel.cli that define a command, in help order (absent ones are skipped)
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import charge, dumps_json, write_output
+from twoel.cli.common import charge, dumps_json, write_output
 
 NAME = "check"
 HELP = ("judge total energies from other programs: error vs the exact nonrelativistic energy and "
@@ -33,8 +33,8 @@ def add_parser(subparsers) -> None:
 
 
 def _table_text(results, header: str | None) -> str:
-    from ..checking import results_frame
-    from ..report.tables import to_markdown
+    from twoel.checking.verdicts import results_frame
+    from twoel.report.tables import to_markdown
 
     frame = results_frame(results)
     formats = {"energy_hartree": ".12f", "error_hartree": "+.6e",
@@ -59,10 +59,10 @@ def _table_text(results, header: str | None) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..check_input import parse_number, read_rows
-    from ..checking import check_energy, check_rows, results_frame
-    from ..errors import InputError
-    from ..report.tables import to_csv
+    from twoel.checking.rows import parse_number, read_rows
+    from twoel.checking.verdicts import check_energy, check_rows, results_frame
+    from twoel.errors import InputError
+    from twoel.report.tables import to_csv
 
     fmt = "json" if args.json else args.format
     single = args.file is None

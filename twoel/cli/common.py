@@ -7,9 +7,9 @@ import json
 import math
 import sys
 
-from ..errors import InputError
-from ..system import parse_charge
-from ..units import UNIT_LABELS, hartree_to
+from twoel.errors import InputError
+from twoel.system import parse_charge
+from twoel.units import UNIT_LABELS, hartree_to
 
 
 class TwoelArgumentParser(argparse.ArgumentParser):
@@ -69,7 +69,7 @@ def term_list(text: str) -> list[tuple[int, int, int]]:
 
 def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | None = None) -> None:
     """Options that choose the trial family and its basis (shared by several commands)."""
-    from ..basis import family_names
+    from twoel.basis import family_names
 
     group = parser.add_argument_group("basis")
     group.add_argument("--state", default="1^1S",

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import charge, print_json
+from twoel.cli.common import charge, print_json
 
 NAME = "converge"
 HELP = "convergence of the energy with the basis size: differences, ratios, extrapolation, error bar"
@@ -42,7 +42,7 @@ def add_parser(subparsers) -> None:
 def table_text(study) -> str:
     lines = [f"{study.ion} {study.state}  family {study.family}, {study.precision}",
              f"{'N':>6}  {'E(N) / Eh':<34} {'E(N-1) - E(N)':>13}  {'ratio':>7}  {'time/s':>7}"]
-    from ..precision import truncate_text
+    from twoel.solver.refine import truncate_text
 
     for n, t, u, d, q, s in zip(study.sizes, study.energy_texts, study.numerical_errors,
                                 study.differences, study.ratios, study.seconds):
@@ -67,8 +67,8 @@ def table_text(study) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..convergence import default_sizes, run_study
-    from ..errors import InputError
+    from twoel.analysis.convergence import default_sizes, run_study
+    from twoel.errors import InputError
 
     if args.sizes is None:
         if args.count < 3:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import add_basis_arguments, basis_keywords, charge, energy_line, print_json
+from twoel.cli.common import add_basis_arguments, basis_keywords, charge, energy_line, print_json
 
 NAME = "energy"
 HELP = "variational energy and ionization energy of one state of one ion"
@@ -57,8 +57,8 @@ def summary_text(result) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from .. import solve
-    from .progress import optimizer_progress, stage_reporter
+    from twoel import solve
+    from twoel.cli.progress import optimizer_progress, stage_reporter
 
     with optimizer_progress(enabled=not args.quiet and not args.json) as progress:
         result = solve(args.Z, progress=progress, precision=args.precision, digits=args.digits,

@@ -6,7 +6,7 @@ import argparse
 import math
 import sys
 
-from .common import charge, energy_line, print_json, size_list
+from twoel.cli.common import charge, energy_line, print_json, size_list
 
 NAME = "hf"
 HELP = "restricted Hartree-Fock limit of the 1s² ground state (even-tempered Slater basis)"
@@ -74,7 +74,7 @@ def _convergence_frame(result, as_text: bool = False):
 
 
 def summary_text(result, table: str) -> str:
-    from ..units import hartree_to
+    from twoel.units import hartree_to
 
     lines = []
     if getattr(result, "is_hartree_fock", True):
@@ -113,11 +113,11 @@ def summary_text(result, table: str) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..errors import InputError
-    from ..report.tables import render
+    from twoel.errors import InputError
+    from twoel.report.tables import render
 
     if args.correlation:
-        from ..correlation import correlation_table
+        from twoel.scf.correlation import correlation_table
 
         frame = correlation_table()
         if args.json:
@@ -145,11 +145,11 @@ def run(args: argparse.Namespace) -> int:
     update, bar = _progress(not args.quiet and not args.json)
     try:
         if args.split_shell:
-            from ..split_shell import DEFAULT_SPLIT_SIZES, split_shell_limit
+            from twoel.scf.split_shell import DEFAULT_SPLIT_SIZES, split_shell_limit
 
             result = split_shell_limit(args.Z, sizes=args.sizes or DEFAULT_SPLIT_SIZES, progress=update)
         else:
-            from ..hartree_fock import DEFAULT_SIZES, hartree_fock_limit
+            from twoel.scf.hartree_fock import DEFAULT_SIZES, hartree_fock_limit
 
             result = hartree_fock_limit(args.Z, sizes=args.sizes or DEFAULT_SIZES, progress=update)
     finally:

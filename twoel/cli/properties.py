@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import charge, positive_int, print_json
+from twoel.cli.common import charge, positive_int, print_json
 
 NAME = "properties"
 HELP = "expectation values (<r>, <1/r12>, delta functions, <grad1.grad2>, ...) and cusp/virial diagnostics"
@@ -59,11 +59,11 @@ def _preset_state(Z: float, state_text: str, quality: str):
     """Solve in the preset double-sector Hylleraas basis; returns a result-like record and values."""
     from types import SimpleNamespace
 
-    from ..corrections.spectrum import preset_basis
-    from ..eigen import solve_generalized
-    from ..properties import expectation_values
-    from ..results import Wavefunction
-    from ..system import Ion, State
+    from twoel.corrections.spectrum import preset_basis
+    from twoel.solver.eigen import solve_generalized
+    from twoel.properties.expectation import expectation_values
+    from twoel.results import Wavefunction
+    from twoel.system import Ion, State
 
     ion, state = Ion(Z), State.parse(state_text)
     basis = preset_basis(ion.Z, state, quality)
@@ -77,8 +77,8 @@ def _preset_state(Z: float, state_text: str, quality: str):
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..properties import expectation_values
-    from ..states import solve_state
+    from twoel.properties.expectation import expectation_values
+    from twoel.analysis.transitions import solve_state
 
     if args.hylleraas_preset:
         result, values = _preset_state(args.Z, args.state, args.hylleraas_preset)

@@ -6,8 +6,8 @@ import argparse
 import sys
 from pathlib import Path
 
-from ..errors import InputError
-from .common import positive_int
+from twoel.errors import InputError
+from twoel.cli.common import positive_int
 
 NAME = "report"
 HELP = "write a report folder (tables, figures, index page, provenance) from a configuration"
@@ -42,7 +42,7 @@ def _target(args, name: str) -> Path:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..report.build import (DEMO_CONFIG, build_report, load_config, normalize_config,
+    from twoel.report.build import (DEMO_CONFIG, build_report, load_config, normalize_config,
                                 read_provenance, rebuild_from_provenance)
 
     if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import add_basis_arguments, basis_keywords, positive_int
+from twoel.cli.common import add_basis_arguments, basis_keywords, positive_int
 
 NAME = "series"
 HELP = "energies, references and ionization energies over a range of Z, as a table"
@@ -32,15 +32,15 @@ def add_parser(subparsers) -> None:
 
 
 def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | None = 1):
-    """Solve for every charge and collect one row per ion (see :func:`twoel.sweep.series_frame`)."""
-    from ..sweep import series_frame as build
+    """Solve for every charge and collect one row per ion (see :func:`twoel.analysis.sweep.series_frame`)."""
+    from twoel.analysis.sweep import series_frame as build
 
     return build(charges, keywords, progress=progress, jobs=jobs)
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..report.tables import render, select_columns
-    from ..system import parse_charge_range
+    from twoel.report.tables import render, select_columns
+    from twoel.system import parse_charge_range
 
     charges = parse_charge_range(args.Z)
     keywords = basis_keywords(args)

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import charge, print_json, positive_int
+from twoel.cli.common import charge, print_json, positive_int
 
 NAME = "spectrum"
 HELP = "ionization energy with finite-mass, α² and α³ corrections, compared with measured data"
@@ -43,7 +43,7 @@ def add_parser(subparsers) -> None:
 
 
 def _details(d: dict) -> list[str]:
-    from ..units import hartree_to
+    from twoel.units import hartree_to
 
     atom = d["atom"]
     fm = atom["finite_mass"]
@@ -65,7 +65,7 @@ def _details(d: dict) -> list[str]:
 
 
 def summary_text(d: dict, details: bool = False) -> str:
-    from ..units import convert_energy
+    from twoel.units import convert_energy
 
     lines = [f"{d['ion']} {d['state']}  (Z = {d['Z']:g}, isotope {d['isotope']}, "
              f"M = {d['nuclear_mass_me']:.7f} m_e)",
@@ -110,13 +110,13 @@ def fine_structure_text(d: dict) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..corrections.spectrum import compute_spectrum
+    from twoel.corrections.spectrum import compute_spectrum
 
-    from ..system import State
+    from twoel.system import State
 
     st = State.parse(args.state)
     if st.L == 1:
-        from ..corrections.spectrum import compute_fine_structure
+        from twoel.corrections.spectrum import compute_fine_structure
 
         d = compute_fine_structure(args.Z, st)
         if args.json:
@@ -126,11 +126,11 @@ def run(args: argparse.Namespace) -> int:
         return 0
     wavefunction = None
     if args.family is not None:
-        from .. import solve
+        from twoel import solve
 
         solved = solve(args.Z, args.state, family=args.family, size=args.size)
         if not solved.bound:
-            from ..errors import NotBoundError
+            from twoel.errors import NotBoundError
 
             raise NotBoundError(solved.message)
         wavefunction = solved.wavefunction

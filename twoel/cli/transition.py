@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from .common import charge, positive_int, print_json
+from twoel.cli.common import charge, positive_int, print_json
 
 NAME = "transition"
 HELP = "energy difference (Eh, cm⁻¹, eV, THz) and vacuum wavelength between two states of one ion"
@@ -39,7 +39,7 @@ def summary_text(t) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..states import transition
+    from twoel.analysis.transitions import transition
 
     keywords = {} if args.family is None else {"family": args.family}
     t = transition(args.Z, args.from_state, args.to_state, size=args.size, **keywords)

@@ -23,11 +23,11 @@ from dataclasses import asdict, dataclass, replace
 
 import numpy as np
 
-from ..eigen import solve_generalized
-from ..errors import UnsupportedError
-from ..matrices import CorrelatedBasis, build_matrices
-from ..integrals.pairs import operator_matrices
-from .operators import MASS_POLARIZATION
+from twoel.solver.eigen import solve_generalized
+from twoel.errors import UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis, build_matrices
+from twoel.integrals.pairs import operator_matrices
+from twoel.properties.operators import MASS_POLARIZATION
 
 
 @dataclass(frozen=True)

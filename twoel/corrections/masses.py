@@ -13,8 +13,8 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
-from .. import constants
-from ..errors import InputError, UnsupportedError
+from twoel import constants
+from twoel.errors import InputError, UnsupportedError
 
 
 @dataclass(frozen=True)

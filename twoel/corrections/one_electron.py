@@ -25,8 +25,8 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
-from .. import constants
-from .qed import bethe_log_hydrogenic_1s, alpha4_radiative_coefficient
+from twoel import constants
+from twoel.corrections.qed import bethe_log_hydrogenic_1s, alpha4_radiative_coefficient
 
 
 @dataclass(frozen=True)

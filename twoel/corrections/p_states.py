@@ -39,10 +39,10 @@ from math import pi
 
 import numpy as np
 
-from .. import constants
-from ..eigen import solve_generalized
-from ..errors import InputError
-from .quadrature import _laguerre
+from twoel import constants
+from twoel.solver.eigen import solve_generalized
+from twoel.errors import InputError
+from twoel.corrections.quadrature import _laguerre
 
 _CHUNK = 2048
 _LEVI = np.zeros((3, 3, 3))

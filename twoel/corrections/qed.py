@@ -33,9 +33,9 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
-from .. import constants
-from ..reference import all_references
-from ..system import State
+from twoel import constants
+from twoel.reference import all_references
+from twoel.system import State
 
 BETHE_TABLE = "bethe_logarithms.csv"
 

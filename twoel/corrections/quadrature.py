@@ -22,7 +22,7 @@ from math import pi
 
 import numpy as np
 
-from ..errors import InputError
+from twoel.errors import InputError
 
 DEFAULT_NODES = 48
 _CHUNK = 4096

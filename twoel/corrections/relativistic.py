@@ -17,7 +17,7 @@ Atomic, Molecular and Optical Physics (2006), ch. 11) is, in hartree,
 spin–orbit, spin–other-orbit and tensor spin–spin terms vanish for L = 0; the 2³P fine
 structure needs P-state wavefunctions (not available for the correlated S bases).
 
-The regularized forms (:mod:`twoel.corrections.operators`) are used for the totals; the direct
+The regularized forms (:mod:`twoel.properties.operators`) are used for the totals; the direct
 delta values are reported beside them to show the agreement.  Finite nuclear mass: the whole
 correction is scaled by ``μ/m`` like the Dirac energy of the one-electron ion
 (:mod:`twoel.corrections.one_electron`); the α²·m/M recoil operators are neglected (a few
@@ -32,9 +32,9 @@ from __future__ import annotations
 from dataclasses import asdict, dataclass
 from math import pi
 
-from .. import constants
-from ..errors import UnsupportedError
-from ..system import State
+from twoel import constants
+from twoel.errors import UnsupportedError
+from twoel.system import State
 
 #: Zα above which the spectrum output cautions that first-order Breit–Pauli is inadequate.
 #: The omitted α⁴ relativistic terms are ~(Zα)² of the α² correction: 0.25 % at Zα = 0.05
@@ -91,7 +91,7 @@ def breit_pauli_s(Z: float, state, values, orbit_orbit: float, reduced_mass: flo
     Z : float
     state : str or State
     values : OperatorValues
-        From :func:`twoel.corrections.operators.operator_values` (per electron).
+        From :func:`twoel.properties.operators.operator_values` (per electron).
     orbit_orbit : float
         ``⟨(1/r12)(p1·p2 + r̂12·(r̂12·p1)p2)⟩`` (a.u.).
     reduced_mass : float

@@ -25,22 +25,22 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from .. import constants
-from .._version import __version__
-from ..eigen import solve_generalized
-from ..errors import InputError, NotBoundError, UnsupportedError
-from ..matrices import CorrelatedBasis
-from ..reference import all_references
-from ..results import Wavefunction
-from ..system import Ion, State
-from ..units import convert_energy, hartree_to
-from .finite_mass import finite_mass_energy
-from .masses import nuclear_mass
-from .one_electron import one_electron_ion
-from .operators import operator_values
-from .qed import qed_correction
-from .quadrature import quadrature_expectations
-from .relativistic import CAUTION_Z_ALPHA, breit_pauli_s
+from twoel import constants
+from twoel._version import __version__
+from twoel.solver.eigen import solve_generalized
+from twoel.errors import InputError, NotBoundError, UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.reference import all_references
+from twoel.results import Wavefunction
+from twoel.system import Ion, State
+from twoel.units import convert_energy, hartree_to
+from twoel.corrections.finite_mass import finite_mass_energy
+from twoel.corrections.masses import nuclear_mass
+from twoel.corrections.one_electron import one_electron_ion
+from twoel.properties.operators import operator_values
+from twoel.corrections.qed import qed_correction
+from twoel.corrections.quadrature import quadrature_expectations
+from twoel.corrections.relativistic import CAUTION_Z_ALPHA, breit_pauli_s
 
 MEASURED_TABLE = "measured_ionization_energies.csv"
 
@@ -201,7 +201,7 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
     mu = mass.reduced_mass
     if wavefunction is None:
         basis = preset_basis(Zf, st, quality)
-        from ..matrices import build_matrices
+        from twoel.basis.correlated import build_matrices
 
         m0 = build_matrices(basis)
         eig = solve_generalized(m0.hamiltonian(Zf), m0.overlap)
@@ -303,7 +303,7 @@ def compute_fine_structure(Z, state="2^3P", nodes: int = 32) -> dict:
     relative residuals.  The centroid ionization energy of P states is not computed (the
     spin-independent α² and α³ terms are implemented for S states only).
     """
-    from .p_states import helium_like_3p_fine_structure
+    from twoel.corrections.p_states import helium_like_3p_fine_structure
 
     started = time.perf_counter()
     ion = Ion.parse(Z)

@@ -10,6 +10,6 @@
 ``_kinetic``  generated from ``symbolic.kinetic_terms`` (do not edit by hand).
 """
 
-from .kernels import integral, integral_table
+from twoel.integrals.kernels import integral, integral_table
 
 __all__ = ["integral", "integral_table"]

@@ -4,7 +4,7 @@ Error-free transformations after Dekker, Numer. Math. 18, 224 (1971) and Knuth (
 4.2.2); the arithmetic follows Hida, Li & Bailey, "Algorithms for quad-double precision floating
 point arithmetic", ARITH-15 (2001).  No fused multiply-add is assumed (Dekker splitting).  Only
 ``+ - *``, integer multiples and reciprocals are provided: that is all the generated zero-power
-integrals (:mod:`twoel.integrals._exponential`) and the energy refinement need.
+integrals (:mod:`twoel.integrals.generated.zero_power_kernels`) and the energy refinement need.
 """
 
 from __future__ import annotations

@@ -4,12 +4,12 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from .symbolic import kinetic_source, zero_power_source
-from .symbolic_states import generated_source
+from twoel.integrals.symbolic import kinetic_source, zero_power_source
+from twoel.integrals.symbolic_states import generated_source
 
-KINETIC_PATH = Path(__file__).with_name("_kinetic.py")
-ZERO_POWER_PATH = Path(__file__).with_name("_exponential.py")
-STATE_TERMS_PATH = Path(__file__).with_name("_state_terms.py")
+KINETIC_PATH = Path(__file__).parent / "generated" / "kinetic_terms.py"
+ZERO_POWER_PATH = Path(__file__).parent / "generated" / "zero_power_kernels.py"
+STATE_TERMS_PATH = Path(__file__).parent / "generated" / "state_terms.py"
 
 
 def main() -> None:

@@ -29,7 +29,7 @@ from math import comb, factorial, pi
 
 import numpy as np
 
-from ..errors import InputError
+from twoel.errors import InputError
 
 FOUR_PI_SQUARED_TIMES_4 = 16.0 * pi * pi
 

@@ -1,8 +1,8 @@
 r"""The one evaluator of correlated pair integrals and operator matrices (S and P bases).
 
 Every matrix of the package between correlated primitives
-``χ = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` (S, :class:`twoel.matrices.CorrelatedBasis`)
-or ``z1 χ`` (P, :class:`twoel.pbasis.PBasis`) is a sum of integrals
+``χ = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` (S, :class:`twoel.basis.correlated.CorrelatedBasis`)
+or ``z1 χ`` (P, :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
 
 .. math:: I(a, b, c; \alpha, \beta, \gamma) = \int\!\!\int r_1^a r_2^b r_{12}^c
           e^{-\alpha r_1 - \beta r_2 - \gamma r_{12}}\, d^3r_1\, d^3r_2
@@ -46,7 +46,7 @@ string ``"kinetic"`` means ``[("kinetic", [(1.0, (0, 0, 0))])]``.  The integrand
 derivations of :mod:`twoel.integrals.symbolic_states` (generated ``_state_terms.py``) and
 :mod:`twoel.integrals.symbolic` (generated ``_kinetic.py``).  Basis functions are
 ``(1 ± P12)`` applied to the primitives (times the contraction, if any); as in
-:mod:`twoel.matrices` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
+:mod:`twoel.basis.correlated` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
 is dropped.
 """
 
@@ -58,10 +58,10 @@ from math import comb, factorial, log, pi
 
 import numpy as np
 
-from ..errors import InputError
-from . import _state_terms as T
-from ._kinetic import kinetic_terms
-from .kernels import MAX_POWER, integral_table
+from twoel.errors import InputError
+from twoel.integrals.generated import state_terms as T
+from twoel.integrals.generated.kinetic_terms import kinetic_terms
+from twoel.integrals.kernels import MAX_POWER, integral_table
 
 SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 #: Gauss–Legendre order of K(p, q) for exponent-sum ratios below RECURSION_RATIO

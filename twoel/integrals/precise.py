@@ -1,7 +1,7 @@
 r"""Zero-power Hamiltonian matrices beyond float64: double-double arrays and exact fixed point.
 
 Both paths evaluate the *same* generated closed forms as the float64 builder
-(:mod:`twoel.integrals._exponential`: polynomials with integer coefficients in
+(:mod:`twoel.integrals.generated.zero_power_kernels`: polynomials with integer coefficients in
 ``a, b, c = 1/A, 1/B, 1/C``), only with other number types:
 
 ``double-double``  NumPy :class:`~twoel.integrals.doubledouble.DD` arrays (~32 digits), used by the
@@ -13,7 +13,7 @@ Both paths evaluate the *same* generated closed forms as the float64 builder
                    (Johansson, IEEE Trans. Comput. 66, 1281 (2017)) at the working precision.
 
 All values carry the factor 16π²; matrices are ``<φ_p|O|(1 ± P12) φ_q>`` like
-:func:`twoel.matrices.primitive_operator_matrices` with
+:func:`twoel.basis.correlated.primitive_operator_matrices` with
 ``O`` = overlap, kinetic, nuclear (``1/r1 + 1/r2``, unit charge) and repulsion (``1/r12``).
 """
 
@@ -23,8 +23,8 @@ import math
 
 import numpy as np
 
-from . import _exponential
-from .doubledouble import DD, two_sum
+from twoel.integrals.generated import zero_power_kernels as _exponential
+from twoel.integrals.doubledouble import DD, two_sum
 
 NAMES = ("overlap", "kinetic", "nuclear", "repulsion")
 

@@ -2,10 +2,10 @@ r"""Fast float64 matrices of purely exponential primitives ``exp(-α r1 - β r2 
 
 For a primitive pair the integrals are polynomials in ``a = 1/A``, ``b = 1/B``, ``c = 1/C`` with
 ``A = α+β``, ``B = β+γ``, ``C = γ+α`` of the summed exponents, times 16π² (derived with SymPy in
-:mod:`twoel.integrals.symbolic`, emitted into :mod:`twoel.integrals._exponential`).  Whole
+:mod:`twoel.integrals.symbolic`, emitted into :mod:`twoel.integrals.generated.zero_power_kernels`).  Whole
 ``P × P`` matrices are evaluated as a handful of NumPy array expressions, which makes the
 Hamiltonian of ``N = 1000`` exponential functions a fraction of a second (the generic
-table-based path of :mod:`twoel.matrices` would build a full integral table per pair).
+table-based path of :mod:`twoel.basis.correlated` would build a full integral table per pair).
 
 The exponentially correlated basis is that of Korobov, Phys. Rev. A 61, 064503 (2000), and
 Frolov & Smith, J. Phys. B 28, L449 (1995).
@@ -17,7 +17,7 @@ from math import pi
 
 import numpy as np
 
-from . import _exponential
+from twoel.integrals.generated import zero_power_kernels as _exponential
 
 SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 
@@ -105,7 +105,7 @@ def _block_values(bra, ket, operators):
 
 
 def primitive_matrices(exponents: np.ndarray, sign: int, operators: dict) -> dict[str, np.ndarray]:
-    """``<χ_p|O|(1 ± P12) χ_q>`` for zero-power primitives (see :func:`twoel.matrices.primitive_operator_matrices`).
+    """``<χ_p|O|(1 ± P12) χ_q>`` for zero-power primitives (see :func:`twoel.basis.correlated.primitive_operator_matrices`).
 
     Both ``<χ_p|O|χ_q>`` and ``<χ_p|O|P12 χ_q>`` are symmetric in ``p, q`` for an
     exchange-symmetric operator, so only the upper triangle is evaluated, in blocks of rows.
@@ -117,7 +117,7 @@ def primitive_matrices(exponents: np.ndarray, sign: int, operators: dict) -> dic
     sign : int
         +1 or -1, the exchange sign.
     operators : dict
-        As for :func:`twoel.matrices.primitive_operator_matrices`; must satisfy :func:`supports`.
+        As for :func:`twoel.basis.correlated.primitive_operator_matrices`; must satisfy :func:`supports`.
     """
     exponents = np.asarray(exponents, dtype=float)
     operators = {name: _normalized(spec) for name, spec in operators.items()}

@@ -15,7 +15,7 @@ The folder is built in a temporary sibling and renamed into place at the end
 existing folder is refused unless ``overwrite=True``.  :func:`rebuild_from_provenance` re-runs
 the configuration stored in a provenance file and compares every number bit for bit.
 
-This module orchestrates; the numbers come from :mod:`twoel.sweep`, the text from
+This module orchestrates; the numbers come from :mod:`twoel.analysis.sweep`, the text from
 :mod:`twoel.report.tables`, the figures from :mod:`twoel.report.plots`.
 """
 
@@ -29,9 +29,9 @@ import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from .. import constants
-from .._version import __version__
-from ..errors import InputError
+from twoel import constants
+from twoel._version import __version__
+from twoel.errors import InputError
 
 PROVENANCE_FORMAT = "twoel-report-provenance"
 PROVENANCE_VERSION = 1
@@ -89,7 +89,7 @@ def _check_keys(where: str, mapping: dict, allowed: set) -> None:
 
 
 def _charges(value, where: str) -> list[float]:
-    from ..system import parse_charge, parse_charge_range
+    from twoel.system import parse_charge, parse_charge_range
 
     if isinstance(value, str):
         return [float(z) for z in parse_charge_range(value)]
@@ -226,7 +226,7 @@ class ReportResult:
 
 def _hartree_fock_limits(charges) -> dict:
     """HF limits tabulated in ``data/`` for these charges: ``{Z: ReferenceValue}`` (Eh)."""
-    from ..reference import all_references
+    from twoel.reference import all_references
 
     found = {}
     for ref in all_references():
@@ -238,7 +238,7 @@ def _hartree_fock_limits(charges) -> dict:
 def _level_frame(results):
     import pandas as pd
 
-    from ..sweep import result_row
+    from twoel.analysis.sweep import result_row
 
     return pd.DataFrame([result_row(r) for r in results])
 
@@ -342,8 +342,8 @@ HE_MEASURED_IONIZATION_CM1 = "198310.66637(20)"
 
 def _caveat() -> str:
     """Why these ionization energies are not spectroscopic values (numbers from the data)."""
-    from ..reference import lookup
-    from ..units import hartree_to
+    from twoel.reference import lookup
+    from twoel.units import hartree_to
 
     text = ("Energies are nonrelativistic with an infinitely heavy nucleus, in hartree (Eh); "
             "ionization energies are E(one-electron ion) - E, in eV and cm-1 with the "
@@ -361,8 +361,8 @@ def _caveat() -> str:
     return text + ". Do not compare them with spectroscopy beyond that level."
 
 def _write_table(folder: Path, stem: str, frame, columns, caption: str, page: _Page):
-    from ..io import atomic_write_text
-    from .tables import render
+    from twoel.io import atomic_write_text
+    from twoel.report.tables import render
 
     columns = [c for c in columns if c in frame.columns]
     atomic_write_text(folder / "tables" / f"{stem}.md", render(frame, "markdown", columns=columns))
@@ -377,7 +377,7 @@ def _write_table(folder: Path, stem: str, frame, columns, caption: str, page: _P
 
 
 def _write_figure(folder: Path, stem: str, fig, caption: str, page: _Page):
-    from .plots import save_figure
+    from twoel.report.plots import save_figure
 
     save_figure(fig, folder / "figures" / stem)
     page.figure(f"figures/{stem}", caption)
@@ -386,7 +386,7 @@ def _write_figure(folder: Path, stem: str, fig, caption: str, page: _Page):
 
 def _bib_entries(keys) -> str:
     """The entries of ``data/references.bib`` for ``keys`` (all of them if a key is unknown)."""
-    from ..reference import read_data_text
+    from twoel.reference import read_data_text
 
     try:
         text = read_data_text("references.bib")
@@ -425,9 +425,9 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     -------
     ReportResult
     """
-    from ..io import atomic_directory, atomic_write_text
-    from ..sweep import convergence_frame, series_frame, solve_many
-    from . import plots
+    from twoel.io import atomic_directory, atomic_write_text
+    from twoel.analysis.sweep import convergence_frame, series_frame, solve_many
+    from twoel.report import plots
 
     config = normalize_config(config)
     out = Path(out)
@@ -546,7 +546,7 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
                              for name in sections},
             "numbers": numbers,
         }
-        from ..cli.common import dumps_json
+        from twoel.cli.common import dumps_json
 
         atomic_write_text(folder / "provenance.json", dumps_json(provenance) + "\n")
         files.append("provenance.json")

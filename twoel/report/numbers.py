@@ -18,7 +18,7 @@ from __future__ import annotations
 import math
 from decimal import ROUND_HALF_EVEN, ROUND_HALF_UP, Decimal, InvalidOperation
 
-from ..errors import InputError
+from twoel.errors import InputError
 
 #: thin-space separators used by the renderers
 LATEX_THIN_SPACE = r"\,"

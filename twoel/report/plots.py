@@ -16,7 +16,7 @@ from pathlib import Path
 
 import numpy as np
 
-from ..errors import InputError
+from twoel.errors import InputError
 
 FIGURE_FORMATS = ("png", "svg")
 #: fixed SVG hash salt and no dates, so repeated builds give the same SVG text
@@ -216,7 +216,7 @@ def figure_bytes(fig, fmt: str) -> bytes:
 
 def save_figure(fig, stem, formats=FIGURE_FORMATS) -> list[Path]:
     """Write ``stem.png`` and ``stem.svg`` (atomically); returns the paths."""
-    from ..io import atomic_write_bytes
+    from twoel.io import atomic_write_bytes
 
     paths = []
     for fmt in formats:

@@ -29,8 +29,8 @@ import re
 
 import pandas as pd
 
-from ..errors import InputError
-from .numbers import (NARROW_NBSP, format_uncertain, group_digits, latex_number, latex_scientific,
+from twoel.errors import InputError
+from twoel.report.numbers import (NARROW_NBSP, format_uncertain, group_digits, latex_number, latex_scientific,
                       text_scientific)
 
 TABLE_FORMATS = ("markdown", "csv", "latex", "json")

@@ -1,0 +1,1 @@
+"""Analysis over many solves: convergence studies, sweeps over Z or size, transitions."""

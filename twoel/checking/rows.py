@@ -1,0 +1,293 @@
+"""Read rows of energies to check from CSV or JSON (the edge before :mod:`twoel.checking.verdicts`).
+
+A row has the columns ``Z``, ``energy`` and ``unit`` (required) and ``state`` and ``label``
+(optional; ``state`` defaults to ``1^1S``).  Column names are case-insensitive.  Other columns
+are kept, unchanged, in :attr:`EnergyRow.extra`, so nothing is silently dropped.
+
+CSV: one header line, then one row per line; whole lines starting with ``#`` are comments and
+blank lines are skipped (both are counted in :class:`EnergyRows`).  JSON: a list of objects, or
+an object with a ``"rows"`` list.  Energies may be numbers or text such as ``-2.9033``,
+``-2.9033D+00`` (Fortran exponent) or ``−2.9033`` (Unicode minus); nothing is evaluated.
+
+Every problem is reported with its row (1-based data row, plus the file line for CSV) and
+column, in one :class:`InputError` listing up to :data:`MAX_REPORTED` of them.  Files larger
+than :data:`MAX_BYTES` or with more than :data:`MAX_ROWS` rows raise :class:`ResourceError`.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+import re
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from twoel.errors import InputError, ResourceError
+from twoel.system import Ion, State, parse_charge
+from twoel.units import canonical_unit
+
+REQUIRED = ("z", "energy", "unit")
+OPTIONAL = ("state", "label")
+#: how the known columns are printed in messages
+DISPLAY = {"z": "Z", "energy": "energy", "unit": "unit", "state": "state", "label": "label"}
+
+#: largest input accepted
+MAX_BYTES = 20 * 1024 * 1024
+MAX_ROWS = 100_000
+#: problems listed in one error message
+MAX_REPORTED = 10
+
+_NUMBER = re.compile(r"[+-]?(\d+(\.\d*)?|\.\d+)([eEdD][+-]?\d+)?")
+
+
+@dataclass(frozen=True)
+class EnergyRow:
+    """One energy to check, as read (``energy`` is in ``unit``, not yet converted)."""
+
+    row: int
+    Z: float
+    energy: float
+    unit: str
+    state: str = "1^1S"
+    label: str = ""
+    energy_text: str = ""
+    line: int | None = None
+    extra: dict = field(default_factory=dict)
+
+    @property
+    def where(self) -> str:
+        return f"row {self.row}" + ("" if self.line is None else f" (line {self.line})")
+
+
+@dataclass(frozen=True)
+class EnergyRows:
+    """All rows of one input, with what was skipped and why."""
+
+    rows: tuple
+    source: str
+    format: str
+    comment_lines: int = 0
+    blank_lines: int = 0
+
+
+class _Problems:
+    def __init__(self, source: str):
+        self.source = source
+        self.items: list[str] = []
+
+    def add(self, text: str) -> None:
+        self.items.append(text)
+
+    def raise_if_any(self) -> None:
+        if not self.items:
+            return
+        shown = self.items[:MAX_REPORTED]
+        more = len(self.items) - len(shown)
+        tail = f"; and {more} more problem(s)" if more else ""
+        count = len(self.items)
+        raise InputError(f"{self.source}: {count} problem(s): " + "; ".join(shown) + tail)
+
+
+def parse_number(text) -> float:
+    """Parse an energy written as a number (no evaluation); raise ``ValueError`` otherwise."""
+    if isinstance(text, bool):
+        raise ValueError("true/false is not a number")
+    if isinstance(text, (int, float)):
+        value = float(text)
+    elif isinstance(text, str):
+        word = text.strip().replace("\u2212", "-")
+        if not _NUMBER.fullmatch(word):
+            raise ValueError(f"{text!r} is not a number")
+        value = float(word.replace("D", "e").replace("d", "e"))
+    else:
+        raise ValueError(f"{text!r} is not a number")
+    if not math.isfinite(value):
+        raise ValueError(f"{text!r} is not a finite number")
+    return value
+
+
+def _cell_text(value) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, float):
+        return repr(value)
+    return str(value).strip()
+
+
+def _parse_record(record: dict, row: int, line: int | None, problems: _Problems,
+                  columns: dict) -> EnergyRow | None:
+    """Validate one record whose keys are normalized column names."""
+    where = f"row {row}" + ("" if line is None else f" (line {line})")
+    before = len(problems.items)
+
+    def missing(name: str) -> bool:
+        value = record.get(name)
+        if value is None or (isinstance(value, str) and not value.strip()):
+            problems.add(f"{where}, column '{columns.get(name, DISPLAY[name])}': missing value")
+            return True
+        return False
+
+    Z = energy = unit = None
+    if not missing("z"):
+        raw = record["z"]
+        try:
+            if isinstance(raw, bool):
+                raise InputError("true/false is not a nuclear charge")
+            Z = Ion(parse_charge(raw if not isinstance(raw, str) else raw.strip())).Z
+        except InputError as exc:
+            problems.add(f"{where}, column '{columns.get('z', 'Z')}': {exc}")
+    if not missing("energy"):
+        try:
+            energy = parse_number(record["energy"])
+        except ValueError as exc:
+            problems.add(f"{where}, column '{columns.get('energy', 'energy')}': {exc}")
+    if not missing("unit"):
+        raw = record["unit"]
+        try:
+            unit = canonical_unit(raw if isinstance(raw, str) else str(raw))
+        except InputError as exc:
+            problems.add(f"{where}, column '{columns.get('unit', 'unit')}': {exc}")
+    state = "1^1S"
+    raw_state = record.get("state")
+    if raw_state is not None and str(raw_state).strip():
+        try:
+            state = State.parse(str(raw_state)).label
+        except InputError as exc:
+            problems.add(f"{where}, column '{columns.get('state', 'state')}': {exc}")
+    label = _cell_text(record.get("label")) or f"row {row}"
+    if len(problems.items) > before:
+        return None
+    extra = {columns.get(k, k): v for k, v in record.items() if k not in REQUIRED + OPTIONAL}
+    return EnergyRow(row=row, Z=Z, energy=energy, unit=unit, state=state, label=label,
+                     energy_text=_cell_text(record["energy"]), line=line, extra=extra)
+
+
+def _normalize_header(names, problems: _Problems, where: str) -> tuple[list[str], dict]:
+    keys, display = [], {}
+    for position, name in enumerate(names, start=1):
+        text = (name or "").strip()
+        if not text:
+            problems.add(f"{where}: column {position} has no name")
+        key = text.lower()
+        if key in display:
+            problems.add(f"{where}: column '{text}' appears twice")
+        keys.append(key)
+        display[key] = text
+    return keys, display
+
+
+def parse_csv_text(text: str, source: str = "<csv>") -> EnergyRows:
+    """Parse CSV text into checked :class:`EnergyRow` objects (see the module docstring)."""
+    problems = _Problems(source)
+    if not text.strip():
+        raise InputError(f"{source}: the file is empty (expected a header line "
+                         "'Z,state,energy,unit,label' and at least one row)")
+    comments = blanks = 0
+    header = None
+    rows: list[EnergyRow] = []
+    count = 0
+    reader = csv.reader(io.StringIO(text))
+    for fields in reader:
+        line = reader.line_num
+        if not fields or all(not f.strip() for f in fields):
+            blanks += 1
+            continue
+        if fields[0].lstrip().startswith("#"):
+            comments += 1
+            continue
+        if header is None:
+            keys, display = _normalize_header(fields, problems, f"header (line {line})")
+            absent = [DISPLAY[c] for c in REQUIRED if c not in keys]
+            if absent:
+                problems.add(f"header (line {line}): missing column(s) {', '.join(absent)} "
+                             f"(found: {', '.join(f.strip() for f in fields)})")
+            problems.raise_if_any()
+            header = keys
+            continue
+        count += 1
+        if count > MAX_ROWS:
+            raise ResourceError(f"{source}: more than {MAX_ROWS} rows; split the file")
+        where = f"row {count} (line {line})"
+        if len(fields) != len(header):
+            problems.add(f"{where}: has {len(fields)} fields but the header has {len(header)}")
+            continue
+        record = dict(zip(header, fields))
+        parsed = _parse_record(record, count, line, problems, display)
+        if parsed is not None:
+            rows.append(parsed)
+        if len(problems.items) > 10 * MAX_REPORTED:
+            break
+    if header is None:
+        raise InputError(f"{source}: no header line (only comments or blank lines)")
+    problems.raise_if_any()
+    if not rows:
+        raise InputError(f"{source}: the header is there but there are no data rows")
+    return EnergyRows(tuple(rows), source, "csv", comments, blanks)
+
+
+def parse_json_text(text: str, source: str = "<json>") -> EnergyRows:
+    """Parse JSON text (a list of row objects, or ``{"rows": [...]}``)."""
+    if not text.strip():
+        raise InputError(f"{source}: the file is empty (expected a JSON list of rows)")
+    try:
+        data = json.loads(text, parse_constant=lambda name: name)  # NaN/Infinity stay text
+    except json.JSONDecodeError as exc:
+        raise InputError(f"{source}: not valid JSON (line {exc.lineno}, column {exc.colno}: {exc.msg})")
+    if isinstance(data, dict):
+        if "rows" not in data:
+            raise InputError(f"{source}: a JSON object must have a 'rows' list")
+        data = data["rows"]
+    if not isinstance(data, list):
+        raise InputError(f"{source}: expected a JSON list of row objects")
+    if not data:
+        raise InputError(f"{source}: the list of rows is empty")
+    if len(data) > MAX_ROWS:
+        raise ResourceError(f"{source}: more than {MAX_ROWS} rows; split the file")
+    problems = _Problems(source)
+    rows = []
+    for count, item in enumerate(data, start=1):
+        where = f"row {count}"
+        if not isinstance(item, dict):
+            problems.add(f"{where}: expected an object with Z, energy and unit, got {type(item).__name__}")
+            continue
+        record, display = {}, {}
+        for name, value in item.items():
+            key = str(name).strip().lower()
+            if key in record:
+                problems.add(f"{where}: column '{name}' appears twice")
+            record[key] = value
+            display[key] = str(name)
+        for c in REQUIRED:
+            if c not in record:
+                problems.add(f"{where}: missing column '{DISPLAY[c]}'")
+        if any(c not in record for c in REQUIRED):
+            continue
+        parsed = _parse_record(record, count, None, problems, display)
+        if parsed is not None:
+            rows.append(parsed)
+        if len(problems.items) > 10 * MAX_REPORTED:
+            break
+    problems.raise_if_any()
+    return EnergyRows(tuple(rows), source, "json")
+
+
+def read_rows(path) -> EnergyRows:
+    """Read a CSV or JSON file of energies (format from the suffix, else from the content)."""
+    path = Path(path)
+    if not path.is_file():
+        raise InputError(f"no such file: {str(path)!r}")
+    size = path.stat().st_size
+    if size > MAX_BYTES:
+        raise ResourceError(f"{path.name}: file of {size / 2**20:.1f} MiB exceeds the limit of "
+                            f"{MAX_BYTES // 2**20} MiB; split it")
+    raw = path.read_bytes()
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{path.name}: not UTF-8 text (byte {exc.start})")
+    suffix = path.suffix.lower()
+    if suffix == ".json" or (suffix != ".csv" and text.lstrip()[:1] in ("[", "{")):
+        return parse_json_text(text, path.name)
+    return parse_csv_text(text, path.name)

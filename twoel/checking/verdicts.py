@@ -1,0 +1,280 @@
+r"""Verdicts on energies printed by other quantum-chemistry programs (pure core).
+
+For one energy of a two-electron ion (``Z``, state, value, unit) :func:`check_energy` reports
+
+* the error against the exact nonrelativistic, infinite-mass energy
+  (``data/reference_energies.csv``): ``error = E − E_exact`` (positive for a variational
+  upper bound) and the number of agreeing significant digits;
+* the error against the Hartree–Fock limit (``data/hartree_fock_limits.csv``):
+  ``E − E_HF`` (negative when some correlation energy is recovered);
+* the percentage of the correlation energy recovered,
+  ``100 (E_HF − E)/(E_HF − E_exact)`` (ground states only);
+* flags with plain explanations (:data:`FLAG_CODES`).
+
+Plausibility of the unit: the energy, converted to hartree with the stated unit, should lie
+within ``0.7 ≤ E/E_ref ≤ 1.1`` of the exact energy (or, without a tabulated value, of the
+screened estimate ``−(Z − 5/16)²``; common practice bound, generous enough for minimal-basis
+and first-order energies).  If it does not, every other unit of :mod:`twoel.units` is tried;
+one that lands inside the window is suggested.  The unit factors differ by at least a factor
+2 (hartree/rydberg), so at most one unit can fit.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass, field
+
+from twoel.checking.rows import EnergyRow
+from twoel.scf.correlation import exact_reference, hartree_fock_reference
+from twoel.errors import InputError
+from twoel.results import agreeing_digits
+from twoel.system import Ion, State
+from twoel.units import ENERGY_UNITS, UNIT_LABELS, canonical_unit, convert_energy, to_hartree
+
+#: plausible window for ``E / E_reference`` of a total energy
+PLAUSIBLE_RATIO = (0.7, 1.1)
+
+FLAG_CODES = {
+    "below_exact": "below the exact nonrelativistic energy",
+    "above_hartree_fock": "above the Hartree-Fock limit",
+    "unit_probably_wrong": "unit probably wrong",
+    "implausible": "not a plausible energy of this ion in any unit",
+    "not_bound": "ion not bound",
+    "no_reference": "no exact energy tabulated",
+    "no_hartree_fock_limit": "no Hartree-Fock limit tabulated",
+}
+
+
+@dataclass(frozen=True)
+class Flag:
+    """A verdict code and its plain-words explanation."""
+
+    code: str
+    explanation: str
+
+    def to_dict(self) -> dict:
+        return {"code": self.code, "explanation": self.explanation}
+
+
+@dataclass(frozen=True)
+class CheckResult:
+    """Verdict on one energy (all energies in hartree unless named otherwise)."""
+
+    Z: float
+    ion: str
+    state: str
+    label: str
+    energy_input: float
+    unit: str
+    energy_hartree: float
+    exact_hartree: float | None
+    hartree_fock_hartree: float | None
+    error_hartree: float | None
+    error_vs_hartree_fock_hartree: float | None
+    correlation_hartree: float | None
+    correlation_recovered_percent: float | None
+    agreeing_digits: int | None
+    threshold_hartree: float
+    flags: tuple = ()
+    suggested_unit: str | None = None
+    exact_source: str | None = None
+    hartree_fock_source: str | None = None
+    row: int | None = None
+    energy_text: str = ""
+    extra: dict = field(default_factory=dict)
+
+    @property
+    def flag_codes(self) -> tuple[str, ...]:
+        return tuple(f.code for f in self.flags)
+
+    def to_dict(self) -> dict:
+        return {
+            "row": self.row, "label": self.label, "Z": self.Z, "ion": self.ion,
+            "state": self.state, "energy": self.energy_input,
+            "energy_text": self.energy_text, "unit": self.unit,
+            "energy_hartree": self.energy_hartree, "exact_hartree": self.exact_hartree,
+            "hartree_fock_hartree": self.hartree_fock_hartree,
+            "error_hartree": self.error_hartree,
+            "error_vs_hartree_fock_hartree": self.error_vs_hartree_fock_hartree,
+            "correlation_hartree": self.correlation_hartree,
+            "correlation_recovered_percent": self.correlation_recovered_percent,
+            "agreeing_digits": self.agreeing_digits, "threshold_hartree": self.threshold_hartree,
+            "flags": list(self.flag_codes),
+            "flag_explanations": [f.explanation for f in self.flags],
+            "suggested_unit": self.suggested_unit,
+            "exact_source": self.exact_source, "hartree_fock_source": self.hartree_fock_source,
+            "extra": dict(self.extra),
+        }
+
+
+def _printed_half_unit(text: str, unit: str) -> float:
+    """Half a unit of the last printed decimal of ``text`` (in hartree); 0 if unknown."""
+    match = re.fullmatch(r"\s*[+\-\u2212]?\d*\.(\d+)\s*", text or "")
+    if not match:
+        return 0.0
+    return abs(to_hartree(0.5 * 10.0 ** (-len(match.group(1))), unit))
+
+
+def _fits(value_hartree: float, reference: float) -> bool:
+    if reference >= 0:
+        return False
+    ratio = value_hartree / reference
+    return PLAUSIBLE_RATIO[0] <= ratio <= PLAUSIBLE_RATIO[1]
+
+
+def check_energy(Z, energy: float, unit: str = "hartree", state: str = "1^1S", label: str = "",
+                 energy_text: str = "", row: int | None = None, extra: dict | None = None) -> CheckResult:
+    """Judge one total energy of a two-electron ion (see the module docstring).
+
+    Parameters
+    ----------
+    Z : float or str
+        Nuclear charge or element symbol.
+    energy : float
+        The total energy as printed, in ``unit``.
+    unit : str
+        ``"hartree"``, ``"eV"``, ``"kcal/mol"``, ``"kJ/mol"``, ``"cm-1"``, ``"mhartree"`` ...
+    state : str
+        Term symbol (default ``1^1S``).
+    label : str
+        Free text naming the method and basis.
+    energy_text : str
+        The energy as written (used to tell rounding of the printed digits from real errors).
+    """
+    ion = Ion.parse(Z)
+    st = State.parse(state)
+    unit = canonical_unit(unit)
+    if isinstance(energy, bool) or not isinstance(energy, (int, float)) or not math.isfinite(energy):
+        raise InputError(f"'energy' must be a finite number, got {energy!r}")
+    e_h = float(to_hartree(energy, unit))
+    exact = None if ion.is_model else exact_reference(ion.Z, st.label)
+    hf = None if (ion.is_model or st.label != "1^1S") else hartree_fock_reference(ion.Z)
+    threshold = ion.threshold_hartree
+    flags: list[Flag] = []
+    rounding = _printed_half_unit(energy_text, unit)
+
+    yardstick = exact.value if exact is not None else -(max(ion.Z - 5.0 / 16.0, 0.1 * ion.Z)) ** 2
+    yard_name = ("the exact energy" if exact is not None
+                 else "the screened estimate -(Z-5/16)²")
+    suggested = None
+    unit_ok = _fits(e_h, yardstick)
+    if not unit_ok:
+        fitting = [u for u in ENERGY_UNITS if u != unit and _fits(to_hartree(energy, u), yardstick)]
+        if fitting:
+            suggested = fitting[0]
+            as_suggested = to_hartree(energy, suggested)
+            flags.append(Flag("unit_probably_wrong",
+                              f"read as {UNIT_LABELS[unit]} the value is {e_h:.6g} Eh, far from "
+                              f"{yard_name} of {ion.label} ({yardstick:.6f} Eh); read as "
+                              f"{UNIT_LABELS[suggested]} it would be {as_suggested:.10g} Eh, so the "
+                              f"unit is probably {UNIT_LABELS[suggested]}, not {UNIT_LABELS[unit]}. "
+                              "The other checks below use the unit as given."))
+        else:
+            hint = ""
+            if energy > 0 and any(_fits(to_hartree(-energy, u), yardstick) for u in ENERGY_UNITS):
+                hint = " A total energy of a bound atom is negative: was the minus sign lost?"
+            flags.append(Flag("implausible",
+                              f"{energy:.6g} {UNIT_LABELS[unit]} = {e_h:.6g} Eh is not a plausible "
+                              f"total energy of {ion.label} {st.label} in any known unit "
+                              f"({yard_name} is {yardstick:.6f} Eh): check Z, the state, the unit, "
+                              f"and that this is a total (not an ionization or orbital) energy.{hint}"))
+
+    error = digits = None
+    if exact is not None:
+        error = e_h - exact.value
+        digits = agreeing_digits(e_h, exact.value)
+        tolerance = max(exact.uncertainty or 0.0, 2e-15 * abs(exact.value))
+        if unit_ok and error < -tolerance:
+            note = (f" The shortfall is within the rounding of the printed digits (±{rounding:.1e} Eh)."
+                    if -error <= rounding else "")
+            flags.append(Flag("below_exact",
+                              f"{-error:.3e} Eh below the exact nonrelativistic energy "
+                              f"{exact.value_text} Eh ({exact.source}). A variational calculation "
+                              "cannot go below it: the method is not variational (e.g. perturbation "
+                              "theory or coupled cluster), or the value includes relativistic, QED "
+                              "or finite-nuclear-mass effects, or Z, the state or the unit is wrong."
+                              + note))
+    else:
+        flags.append(Flag("no_reference",
+                          f"no exact nonrelativistic energy is tabulated for {ion.label} {st.label}"
+                          " (twoel ships Z = 1..10 ground states and some He excited states): "
+                          "only the unit and binding checks were done"))
+
+    error_hf = corr = percent = None
+    if hf is not None:
+        error_hf = e_h - hf.value
+        tolerance = max(hf.uncertainty or 0.0, 2e-15 * abs(hf.value))
+        if exact is not None:
+            corr = exact.value - hf.value
+            percent = 100.0 * (hf.value - e_h) / (hf.value - exact.value)
+        if unit_ok and error_hf > tolerance:
+            note = (f" The excess is within the rounding of the printed digits (±{rounding:.1e} Eh)."
+                    if error_hf <= rounding else "")
+            flags.append(Flag("above_hartree_fock",
+                              f"{error_hf:.3e} Eh above the Hartree-Fock limit {hf.value_text} Eh "
+                              f"({hf.source}): worse than Hartree-Fock, so no correlation energy is "
+                              "recovered; check the basis set (too small?), the method, the state "
+                              "and Z." + note))
+    elif st.label == "1^1S":
+        flags.append(Flag("no_hartree_fock_limit",
+                          f"no Hartree-Fock limit is tabulated for {ion.label}: no correlation "
+                          "percentage"))
+    else:
+        flags.append(Flag("no_hartree_fock_limit",
+                          f"{st.label} is not the 1s² ground state: the Hartree-Fock limit and the "
+                          "correlation percentage are given for ground states only"))
+
+    if unit_ok and e_h >= threshold:
+        flags.append(Flag("not_bound",
+                          f"{e_h:.10g} Eh is not below {threshold:g} Eh (= -Z²/2, the one-electron "
+                          f"ion plus a free electron): this calculation does not bind {ion.label}"
+                          + (" (restricted Hartree-Fock gives E = -0.48793 Eh for H⁻, unbound; "
+                             "correlation binds it: exact -0.52775 Eh)" if ion.Z == 1 else "")))
+
+    return CheckResult(
+        Z=ion.Z, ion=ion.label, state=st.label, label=label, energy_input=float(energy),
+        unit=unit, energy_hartree=e_h, exact_hartree=None if exact is None else exact.value,
+        hartree_fock_hartree=None if hf is None else hf.value, error_hartree=error,
+        error_vs_hartree_fock_hartree=error_hf, correlation_hartree=corr,
+        correlation_recovered_percent=percent, agreeing_digits=digits,
+        threshold_hartree=threshold, flags=tuple(flags), suggested_unit=suggested,
+        exact_source=None if exact is None else exact.source,
+        hartree_fock_source=None if hf is None else hf.source, row=row,
+        energy_text=energy_text or repr(float(energy)), extra=dict(extra or {}))
+
+
+def check_rows(rows) -> list[CheckResult]:
+    """Check every :class:`~twoel.checking.rows.EnergyRow` (one result per row, in order)."""
+    results = []
+    for r in rows:
+        if not isinstance(r, EnergyRow):
+            raise InputError(f"check_rows expects EnergyRow objects, got {type(r).__name__}")
+        results.append(check_energy(r.Z, r.energy, r.unit, r.state, r.label, r.energy_text,
+                                    r.row, r.extra))
+    return results
+
+
+def results_frame(results):
+    """A :class:`pandas.DataFrame` with one row per checked energy (flags joined by ``;``)."""
+    import pandas as pd
+
+    records = []
+    for r in results:
+        d = r.to_dict()
+        records.append({
+            "row": d["row"], "label": d["label"], "Z": d["Z"], "ion": d["ion"], "state": d["state"],
+            "energy": d["energy_text"], "unit": UNIT_LABELS[d["unit"]],
+            "energy_hartree": d["energy_hartree"], "error_hartree": d["error_hartree"],
+            "error_vs_hartree_fock_hartree": d["error_vs_hartree_fock_hartree"],
+            "correlation_recovered_percent": d["correlation_recovered_percent"],
+            "agreeing_digits": d["agreeing_digits"], "flags": ";".join(d["flags"]),
+        })
+    return pd.DataFrame(records)
+
+
+def convert_suggestion(result: CheckResult) -> float | None:
+    """The energy re-read in the suggested unit (Eh), or ``None`` when no unit was suggested."""
+    if result.suggested_unit is None:
+        return None
+    return float(convert_energy(result.energy_input, result.suggested_unit, "hartree"))

@@ -1,0 +1,369 @@
+r"""Expectation values and wavefunction diagnostics of a computed state (pure functions).
+
+``expectation_values(result_or_wavefunction, Z)`` takes an :class:`twoel.EnergyResult` (or its
+:class:`twoel.results.Wavefunction`) and returns :class:`ExpectationValues`: radial moments,
+δ functions in direct and regularized form, the mass-polarization operator, ``⟨p1⁴⟩``, the
+virial ratio and the Kato cusp ratios.  All values are per electron (the states are exchange
+(anti)symmetric, so electron 1 and 2 give the same number), in atomic units (bohr, bohr⁻¹,
+hartree).
+
+δ functions
+    The *direct* forms ``⟨δ³(r1)⟩ = ∫|Ψ(0, r2)|² d³r2`` and ``⟨δ³(r12)⟩`` sample the wave
+    function at one point and converge slowly.  The *regularized* global-operator forms
+    (R. J. Drachman, J. Phys. B 14, 2733 (1981)) follow from ``∇²(1/r) = -4π δ³(r)``, two
+    integrations by parts and ``(∇1² + ∇2²)Ψ = 2(V - E)Ψ``:
+
+    .. math::
+
+        4\pi \langle\delta^3(r_1)\rangle = 4\langle (E - V)\, f\rangle
+            - 2\langle f\, (|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,\quad f = \tfrac12(1/r_1 + 1/r_2),
+
+        4\pi \langle\delta^3(r_{12})\rangle = 2\langle (E - V)/r_{12}\rangle
+            - \langle r_{12}^{-1}(|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,
+
+    with ``V = -Z/r1 - Z/r2 + 1/r12`` and ``E = ⟨H⟩``; their error is second order in the
+    wave-function error.
+
+``⟨p1⁴⟩``
+    From ``(p1² + p2²)Ψ = 2(E - V)Ψ``: ``⟨p1⁴⟩ = 2⟨(E - V)²⟩ - ⟨p1² p2²⟩`` (per electron), with
+    ``⟨p1² p2²⟩ = ∫ (∇1²Ψ)(∇2²Ψ)``.  Written so, no δ-like term appears (a regularized form).
+
+Mass polarization
+    ``grad1_dot_grad2`` is ``⟨Ψ|∇1·∇2|Ψ⟩ = -⟨p1·p2⟩`` (bohr⁻²).  The first-order
+    mass-polarization energy is ``-(μ/M)⟨∇1·∇2⟩`` (Hartree units of the reduced mass).
+
+Cusp ratios (Kato, Commun. Pure Appl. Math. 10, 151 (1957))
+    ``cusp_nucleus = ⟨δ³(r1) ∂/∂r1⟩ / ⟨δ³(r1)⟩`` (exact: ``-Z``) and
+    ``cusp_electron = ⟨δ³(r12) ∂/∂r12⟩ / ⟨δ³(r12)⟩`` (exact: ``1/2`` for singlets).  Triplet
+    wave functions vanish at ``r12 = 0``, so their electron cusp ratio is undefined (``nan``).
+    Both derivatives are spherically averaged (for P states the derivative of the ``z`` factor
+    averages to zero at the coalescence point, so the same pair formulas apply).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import asdict, dataclass, field
+
+import numpy as np
+
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.correlated import CorrelatedBasis
+from twoel.integrals.pairs import basis_kind, operator_matrices
+from twoel.integrals.hamiltonian import HAMILTONIAN
+from twoel.results import EnergyResult, Wavefunction
+
+FOUR_PI = 4.0 * math.pi
+
+
+@dataclass(frozen=True)
+class ExpectationValues:
+    """Expectation values of one normalized state, per electron, atomic units.
+
+    Attributes
+    ----------
+    r1, r1_squared, inv_r1, inv_r1_squared : float
+        ``⟨r1⟩`` (bohr), ``⟨r1²⟩`` (bohr²), ``⟨1/r1⟩`` (bohr⁻¹), ``⟨1/r1²⟩`` (bohr⁻²).
+    r12, r12_squared, inv_r12 : float
+        ``⟨r12⟩`` (bohr), ``⟨r12²⟩`` (bohr²), ``⟨1/r12⟩`` (bohr⁻¹).
+    delta_r1, delta_r12 : float
+        Direct ``⟨δ³(r1)⟩`` and ``⟨δ³(r12)⟩`` (bohr⁻³).
+    delta_r1_regularized, delta_r12_regularized : float
+        Drachman global-operator forms of the same (bohr⁻³); use these.
+    grad1_dot_grad2 : float
+        ``⟨∇1·∇2⟩`` (bohr⁻²), mass polarization (equals ``-⟨p1·p2⟩``).
+    p1_fourth : float or None
+        ``⟨∇1⁴⟩ = ⟨p1⁴⟩`` (bohr⁻⁴), regularized form; ``None`` if not available.
+    virial_ratio : float
+        ``-⟨V⟩/⟨T⟩`` (exact: 2).
+    cusp_nucleus, cusp_electron : float
+        Kato cusp ratios (exact: ``-Z`` and ``1/2``); ``nan`` when undefined.
+    normalization : float
+        ``⟨Ψ|Ψ⟩`` of the coefficients as given (1 for a result of :func:`twoel.solve`).
+    energy_hartree, kinetic_hartree, potential_hartree : float
+        ``⟨H⟩``, ``⟨T⟩``, ``⟨V⟩`` (Eh) of the same wave function.
+    """
+
+    Z: float
+    state: str | None
+    n_terms: int
+    energy_hartree: float
+    kinetic_hartree: float
+    potential_hartree: float
+    r1: float
+    r1_squared: float
+    inv_r1: float
+    inv_r1_squared: float
+    r12: float
+    r12_squared: float
+    inv_r12: float
+    delta_r1: float
+    delta_r12: float
+    delta_r1_regularized: float
+    delta_r12_regularized: float
+    grad1_dot_grad2: float
+    p1_fourth: float | None
+    virial_ratio: float
+    cusp_nucleus: float
+    cusp_electron: float
+    normalization: float
+    notes: tuple = field(default=())
+
+    def to_dict(self) -> dict:
+        out = asdict(self)
+        out["notes"] = list(self.notes)
+        out["units"] = dict(UNITS)
+        return out
+
+
+#: units of the fields (atomic units)
+UNITS = {
+    "energy_hartree": "Eh", "kinetic_hartree": "Eh", "potential_hartree": "Eh",
+    "r1": "bohr", "r1_squared": "bohr^2", "inv_r1": "bohr^-1", "inv_r1_squared": "bohr^-2",
+    "r12": "bohr", "r12_squared": "bohr^2", "inv_r12": "bohr^-1",
+    "delta_r1": "bohr^-3", "delta_r12": "bohr^-3", "delta_r1_regularized": "bohr^-3",
+    "delta_r12_regularized": "bohr^-3", "grad1_dot_grad2": "bohr^-2", "p1_fourth": "bohr^-4",
+    "virial_ratio": "1", "cusp_nucleus": "bohr^-1", "cusp_electron": "bohr^-1",
+    "normalization": "1",
+}
+
+
+def _half(*monomials):
+    return [(0.5, m) for m in monomials]
+
+
+def _operators(Z: float, lam: float) -> dict[str, list]:
+    f1 = _half((-1, 0, 0), (0, -1, 0))
+    f12 = [(1.0, (0, 0, -1))]
+    # V f for f = (1/r1 + 1/r2)/2 and f = 1/r12
+    v_f1 = [(-0.5 * Z, (-2, 0, 0)), (-0.5 * Z, (0, -2, 0)), (-Z, (-1, -1, 0)),
+            (0.5 * lam, (-1, 0, -1)), (0.5 * lam, (0, -1, -1))]
+    v_f12 = [(-Z, (-1, 0, -1)), (-Z, (0, -1, -1)), (lam, (0, 0, -2))]
+    # V² for <(E - V)²>
+    v_sq = [(Z * Z, (-2, 0, 0)), (Z * Z, (0, -2, 0)), (2 * Z * Z, (-1, -1, 0)),
+            (-2 * Z * lam, (-1, 0, -1)), (-2 * Z * lam, (0, -1, -1)), (lam * lam, (0, 0, -2))]
+    ops = dict(HAMILTONIAN)
+    ops.update({
+        "r1": [("unit", _half((1, 0, 0), (0, 1, 0)))],
+        "r1_squared": [("unit", _half((2, 0, 0), (0, 2, 0)))],
+        "inv_r1": [("unit", f1)],
+        "inv_r1_squared": [("unit", _half((-2, 0, 0), (0, -2, 0)))],
+        "r12": [("unit", [(1.0, (0, 0, 1))])],
+        "r12_squared": [("unit", [(1.0, (0, 0, 2))])],
+        "inv_r12": [("unit", f12)],
+        "v_f1": [("unit", v_f1)],
+        "v_f12": [("unit", v_f12)],
+        "grad_f1": [("grad11", f1), ("grad22", f1)],
+        "grad_f12": [("grad11", f12), ("grad22", f12)],
+        "grad12": [("grad12", [(1.0, (0, 0, 0))])],
+        "v_squared": [("unit", v_sq)],
+        "lap1lap2": [("lap1lap2", [(1.0, (0, 0, 0))])],
+    })
+    return ops
+
+
+def _unpack(obj) -> tuple[object, np.ndarray, str | None]:
+    if isinstance(obj, EnergyResult):
+        if obj.wavefunction is None:
+            raise InputError("this result carries no wave function (computed without one)")
+        return obj.wavefunction.basis, np.asarray(obj.wavefunction.coefficients, float), obj.state
+    if isinstance(obj, Wavefunction):
+        return obj.basis, np.asarray(obj.coefficients, float), None
+    raise InputError(f"expected an EnergyResult or Wavefunction, got {type(obj).__name__}")
+
+
+def _primitive_coefficients(basis, coefficients: np.ndarray) -> np.ndarray:
+    if coefficients.ndim != 1 or coefficients.shape[0] != basis.size:
+        raise InputError(f"coefficients must be a vector of length {basis.size}")
+    return coefficients if basis.contraction is None else basis.contraction @ coefficients
+
+
+def _radial_moment(n: np.ndarray, lam: np.ndarray, angular: float = 1.0) -> np.ndarray:
+    """``angular · 4π ∫_0^∞ r^(n+2) e^{-λ r} dr = angular · 4π (n+2)! / λ^(n+3)``."""
+    from scipy.special import gammaln
+
+    return angular * FOUR_PI * np.exp(gammaln(n + 3.0) - (n + 3.0) * np.log(lam))
+
+
+def _coalescence(basis, d: np.ndarray) -> dict[str, float]:
+    """Direct δ and cusp numerators ``d^T M d`` (not normalized, factor-2 convention)."""
+    kind = basis_kind(basis)
+    P, E = basis.powers, basis.exponents
+    sign = float(basis.sign)
+    out = {"delta_r1": 0.0, "delta_r2": 0.0, "delta_r12": 0.0, "cusp_r1": 0.0, "cusp_r2": 0.0,
+           "cusp_r12": 0.0}
+    for exchanged in (False, True):
+        kp, ke = (P[:, [1, 0, 2]], E[:, [1, 0, 2]]) if exchanged else (P, E)
+        weight = sign if exchanged else 1.0
+        bp, be = P[:, None, :], E[:, None, :]
+        tp, te = bp + kp[None], be + ke[None]
+        # (which, vanishing index, remaining powers, remaining exponents)
+        cases = {"r1": (0, (1, 2)), "r2": (1, (0, 2)), "r12": (2, (0, 1))}
+        for name, (index, rest) in cases.items():
+            if kind == "P":
+                # bra z1 vanishes at r1 = 0; the cross ket z2 vanishes at r2 = 0;
+                # z1 z1 (same) and z1 z2 (cross, at r1 = r2) average to r²/3 where nonzero
+                if name == "r1" or (name == "r2" and exchanged):
+                    continue
+                angular, extra = 1.0 / 3.0, 2
+            else:
+                angular, extra = 1.0, 0
+            mask = (bp[..., index] == 0) & (kp[None, :, index] == 0)
+            n = (tp[..., rest[0]] + tp[..., rest[1]] + extra).astype(float)
+            lam = te[..., rest[0]] + te[..., rest[1]]
+            value = np.where(mask, _radial_moment(n, np.where(mask, lam, 1.0), angular), 0.0)
+            out[f"delta_{name}"] += weight * float(d @ value @ d)
+            # spherically averaged d/dr of the ket at the coalescence point (for P kets the
+            # derivative of the z factor averages to zero there)
+            ket_i = kp[None, :, index]
+            slope = np.where(ket_i == 0, -ke[None, :, index], np.where(ket_i == 1, 1.0, 0.0))
+            bra_ok = bp[..., index] == 0
+            mom = _radial_moment(n, np.where(bra_ok, lam, 1.0), angular)
+            value = np.where(bra_ok & (ket_i <= 1), slope * mom, 0.0)
+            out[f"cusp_{name}"] += weight * float(d @ value @ d)
+    return out
+
+
+def _refinable(basis, repulsion: float) -> bool:
+    return (isinstance(basis, CorrelatedBasis) and basis.contraction is None and repulsion == 1.0
+            and not np.any(basis.powers) and basis.size <= 2000)
+
+
+def _refine(basis, mats, c: np.ndarray, Z: float, kept=None) -> tuple[dict, float, float]:
+    """Refined eigenvector and double-double moments.
+
+    ``kept`` is ``(vector, energy)`` of the refinement the solve already made (mixed or
+    extended precision, see :class:`twoel.results.Wavefunction`); otherwise the mixed
+    double-double / 128-bit step is taken here.
+    """
+    from twoel.integrals.doubledouble import DD, dd_dot, dd_matvec
+    from twoel.integrals.precise import dd_matrices
+    from twoel.properties.precise import refined_moments
+
+    if kept is not None:
+        vector, energy = np.asarray(kept[0], dtype=float), float(kept[1])
+    else:
+        from twoel.solver.eigen import solve_generalized
+        from twoel.solver.refine import mixed_refine
+
+        S = mats["overlap"]
+        H = mats["kinetic"] - Z * mats["nuclear"] + mats["repulsion"]
+        eig = solve_generalized(H, S)
+        root = int(np.argmax(np.abs(eig.vectors.T @ (S @ c))))
+        refined = mixed_refine(basis.exponents, basis.sign, Z, eig, root)
+        vector, energy = np.asarray(refined.vector, dtype=float), float(refined.energy_hartree)
+    moments = refined_moments(basis, vector)
+    dd = dd_matrices(basis.exponents, basis.sign)
+    x = DD(vector)
+
+    def quad(matrix):
+        value = dd_dot(x, dd_matvec(matrix, x))
+        return value
+
+    norm = quad(dd["overlap"]).reciprocal()
+    T = quad(dd["kinetic"]) * norm
+    V = (quad(dd["repulsion"]) - quad(dd["nuclear"]) * DD(Z)) * norm
+    virial = -(V * T.reciprocal())
+    return moments, float(virial.hi + virial.lo), energy
+
+
+def expectation_values(result_or_wavefunction, Z: float | None = None, *,
+                       repulsion: float = 1.0, refine: bool | None = None) -> ExpectationValues:
+    """Expectation values and diagnostics of a state (see the module docstring).
+
+    Parameters
+    ----------
+    result_or_wavefunction : EnergyResult or Wavefunction
+        The state; its basis must be a correlated S basis or a P basis.
+    Z : float, optional
+        Nuclear charge; taken from the result when omitted.
+    repulsion : float
+        Scale ``λ`` of ``1/r12`` in the Hamiltonian ``T - Z/r1 - Z/r2 + λ/r12`` that the
+        regularized forms, ``⟨p1⁴⟩`` and the virial ratio assume (1 for the atom; 0 gives the
+        hydrogenic model, whose exact eigenfunctions check the formulas).
+    refine : bool, optional
+        For zero-power exponential S bases: replace the float64 eigenvector by the refined one
+        (:func:`twoel.solver.refine.mixed_refine`) and evaluate the radial moments and the virial
+        ratio in double-double (:mod:`twoel.properties.precise`).  Default: on for an
+        :class:`EnergyResult` of such a basis (the float64 eigenvector of a large basis is
+        ~1e-9 Eh off), off for a bare wave function.  The δ, gradient and ``⟨p1⁴⟩`` values stay
+        float64 evaluations of the stored vector.
+
+    Returns
+    -------
+    ExpectationValues
+    """
+    if Z is None:
+        if not isinstance(result_or_wavefunction, EnergyResult):
+            raise InputError("'Z' is needed with a bare wave function")
+        Z = result_or_wavefunction.Z
+    if isinstance(Z, bool) or not isinstance(Z, (int, float)) or not math.isfinite(Z) or Z <= 0:
+        raise InputError(f"'Z' must be a positive nuclear charge, got {Z!r}")
+    Z = float(Z)
+    if isinstance(repulsion, bool) or not isinstance(repulsion, (int, float)) or not math.isfinite(repulsion):
+        raise InputError(f"'repulsion' must be a finite number, got {repulsion!r}")
+    basis, c, state = _unpack(result_or_wavefunction)
+    if not hasattr(basis, "exponents") or not hasattr(basis, "powers"):
+        raise UnsupportedError(f"expectation values need a correlated basis, not {type(basis).__name__}")
+    kind = basis_kind(basis)
+    notes = []
+    ops = _operators(Z, float(repulsion))
+    p4_ok = True
+    try:
+        mats = operator_matrices(basis, ops)
+    except InputError:
+        ops.pop("lap1lap2")
+        mats = operator_matrices(basis, ops)
+        p4_ok = False
+        notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
+    values = {name: float(c @ m @ c) for name, m in mats.items()}
+    norm = values["overlap"]
+    if not norm > 0:
+        raise InputError("the wave function has zero norm")
+    v = {name: value / norm for name, value in values.items()}
+    T = v["kinetic"]
+    V = -Z * v["nuclear"] + repulsion * v["repulsion"]
+    E = T + V
+    d = _primitive_coefficients(basis, c)
+    co = {k: x / norm for k, x in _coalescence(basis, d).items()}
+    delta_r1 = 0.5 * (co["delta_r1"] + co["delta_r2"])
+    delta_r12 = co["delta_r12"]
+    delta_r1_reg = (4.0 * (E * v["inv_r1"] - v["v_f1"]) - 2.0 * v["grad_f1"]) / FOUR_PI
+    delta_r12_reg = (2.0 * (E * v["inv_r12"] - v["v_f12"]) - v["grad_f12"]) / FOUR_PI
+    cusp_nucleus = 0.5 * (co["cusp_r1"] + co["cusp_r2"]) / delta_r1 if delta_r1 > 0 else float("nan")
+    if basis.sign > 0 and delta_r12 > 0:
+        cusp_electron = co["cusp_r12"] / delta_r12
+    else:
+        cusp_electron = float("nan")
+        notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
+                     "r12 = 0, so ⟨δ³(r12)⟩ = 0")
+    if p4_ok:
+        e_minus_v_sq = E * E - 2.0 * E * V + v["v_squared"]
+        p1_fourth = 2.0 * e_minus_v_sq - v["lap1lap2"]
+    else:
+        p1_fourth = None
+    if refine is None:
+        refine = isinstance(result_or_wavefunction, EnergyResult) and _refinable(basis, repulsion)
+    virial_ratio = -V / T
+    if refine:
+        if not _refinable(basis, repulsion):
+            raise UnsupportedError("refinement needs a zero-power, uncontracted S basis and the "
+                                   "physical Hamiltonian (repulsion = 1)")
+        wavefunction = (result_or_wavefunction.wavefunction
+                        if isinstance(result_or_wavefunction, EnergyResult) else result_or_wavefunction)
+        kept = getattr(wavefunction, "refined_coefficients", None)
+        kept = None if kept is None else (kept, wavefunction.refined_energy_hartree)
+        moments, virial_ratio, E_refined = _refine(basis, mats, c, Z, kept)
+        v.update(moments)
+        notes.append(f"⟨r1⟩, ⟨r1²⟩, ⟨1/r1⟩, ⟨r12⟩, ⟨r12²⟩, ⟨1/r12⟩ and the virial ratio use the refined "
+                     f"eigenvector in double-double (refined energy {E_refined!r} Eh; float64 "
+                     f"vector {E!r} Eh); the other values use the float64 vector")
+    return ExpectationValues(
+        Z=Z, state=state, n_terms=int(basis.size), energy_hartree=E, kinetic_hartree=T,
+        potential_hartree=V, r1=v["r1"], r1_squared=v["r1_squared"], inv_r1=v["inv_r1"],
+        inv_r1_squared=v["inv_r1_squared"], r12=v["r12"], r12_squared=v["r12_squared"],
+        inv_r12=v["inv_r12"], delta_r1=delta_r1, delta_r12=delta_r12,
+        delta_r1_regularized=delta_r1_reg, delta_r12_regularized=delta_r12_reg,
+        grad1_dot_grad2=-v["grad12"], p1_fourth=p1_fourth, virial_ratio=virial_ratio,
+        cusp_nucleus=cusp_nucleus, cusp_electron=cusp_electron, normalization=norm,
+        notes=tuple(notes))

@@ -1,0 +1,1 @@
+"""Orbital models: restricted Hartree–Fock limit, the split-shell function, correlation energies."""
