@@ -1,4 +1,18 @@
-"""Frozen result objects with their provenance.
+"""Frozen result objects with their provenance, on one shared base.
+
+:class:`Result` is the base of every result dataclass in twoel.  It gives each result the same
+four things: ``to_dict()`` (JSON-ready, every field with its unit in its name), ``to_frame()``
+(a one-row :class:`pandas.DataFrame` of the scalar fields), ``provenance`` (how the number was
+made) and a short readable ``repr``.  One meaning per field name holds across all results:
+
+``energy_hartree``       a variational energy (Eh)
+``difference_hartree``   ``E - E_reference`` (Eh), computed against a published reference
+``step_hartree``         ``E(N_{k-1}) - E(N_k)`` between consecutive nested bases (Eh)
+``error_bar_hartree``    the uncertainty that twoel states for ``energy_hartree`` (Eh)
+``*_cm1``, ``*_ev``, ``*_mhz``, ``*_nm``   the same quantity in that laboratory unit
+
+A result that renames a misleading field keeps the old name as an alias in ``ALIASES`` (old name
+-> new name), so both appear in ``to_dict()``.
 
 :class:`EnergyResult` is what :func:`twoel.solve` returns: the energy (Eh), whether the state is
 bound, the ionization energy, diagnostics of the basis and the optimizer, the published
@@ -9,13 +23,76 @@ reference with the difference, and everything needed to reproduce the number
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
-from typing import Any
+from dataclasses import dataclass, field, fields
+from typing import Any, ClassVar
 
 import numpy as np
 
 from twoel.reference import ReferenceValue
 from twoel.units import ENERGY_UNITS, hartree_to
+
+
+def _plain(value):
+    """A JSON-ready copy of ``value`` (results, dataclasses with ``to_dict``, arrays, tuples)."""
+    if hasattr(value, "to_dict") and callable(value.to_dict):
+        return value.to_dict()
+    if isinstance(value, np.ndarray):
+        return value.tolist()
+    if isinstance(value, np.generic):
+        return value.item()
+    if isinstance(value, dict):
+        return {k: _plain(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_plain(v) for v in value]
+    return value
+
+
+class Result:
+    """Shared base of the result dataclasses (``to_dict``, ``to_frame``, ``provenance``, repr).
+
+    A subclass is a frozen dataclass.  By default ``to_dict()`` holds every field that takes part
+    in comparison (fields declared with ``compare=False``, such as a wavefunction, are left out),
+    plus the aliases of :attr:`ALIASES`; a subclass with a documented JSON layout overrides
+    :meth:`to_dict` and calls :meth:`_with_aliases`.  :attr:`SUMMARY` names the fields that the
+    ``repr`` shows.
+    """
+
+    #: old field name -> current field name; both appear in ``to_dict()``
+    ALIASES: ClassVar[dict[str, str]] = {}
+    #: fields shown by ``repr`` (default: the first three)
+    SUMMARY: ClassVar[tuple[str, ...]] = ()
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary of the result."""
+        out = {f.name: _plain(getattr(self, f.name)) for f in fields(self) if f.compare}
+        return self._with_aliases(out)
+
+    def _with_aliases(self, out: dict) -> dict:
+        for old, new in self.ALIASES.items():
+            if new in out and old not in out:
+                out[old] = out[new]
+        return out
+
+    def to_frame(self):
+        """One-row :class:`pandas.DataFrame` of the scalar entries of :meth:`to_dict`."""
+        import pandas as pd
+
+        record = {k: v for k, v in self.to_dict().items() if not isinstance(v, (dict, list))}
+        return pd.DataFrame([record])
+
+    @property
+    def provenance_record(self) -> dict:
+        """How the result was made (method, basis, parameters, precision, constants, versions)."""
+        value = getattr(self, "provenance", None)
+        return dict(value) if isinstance(value, dict) else {}
+
+    def __repr__(self) -> str:
+        names = self.SUMMARY or tuple(f.name for f in fields(self))[:3]
+        parts = []
+        for name in names:
+            value = getattr(self, name)
+            parts.append(f"{name}={value:.12g}" if isinstance(value, float) else f"{name}={value!r}")
+        return f"{type(self).__name__}({', '.join(parts)})"
 
 
 def agreeing_digits(value: float, reference: float) -> int:
@@ -47,8 +124,8 @@ class Wavefunction:
     refined_energy_hartree: float | None = None
 
 
-@dataclass(frozen=True)
-class EnergyResult:
+@dataclass(frozen=True, repr=False)
+class EnergyResult(Result):
     """Energy of one state of a two-electron ion, with diagnostics and provenance.
 
     All energies are in hartree (Eh).  ``energy_hartree`` is the variational (upper-bound)
@@ -154,14 +231,6 @@ class EnergyResult:
             "elapsed_seconds": self.elapsed_seconds,
             "provenance": self.provenance,
         }
-
-    def to_frame(self):
-        """One-row :class:`pandas.DataFrame` of the scalar fields."""
-        import pandas as pd
-
-        record = {k: v for k, v in self.to_dict().items()
-                  if not isinstance(v, (dict, list))}
-        return pd.DataFrame([record])
 
     def ionization_energies(self) -> dict[str, float] | None:
         """The ionization energy in every known unit, or ``None`` if not bound."""
