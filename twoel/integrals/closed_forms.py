@@ -36,6 +36,8 @@ def radial_integral(n, lam):
     """
     if np.isscalar(n) and np.isscalar(lam):
         n, lam = float(n), float(lam)
+        if n.is_integer() and 0 <= n + 2 <= 170:  # exact factorial: correctly rounded for small n
+            return FOUR_PI * math.factorial(int(n) + 2) / lam ** (int(n) + 3)
         return FOUR_PI * math.exp(math.lgamma(n + 3.0) - (n + 3.0) * math.log(lam))
     from scipy.special import gammaln
 
