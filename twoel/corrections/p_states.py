@@ -1,22 +1,29 @@
-r"""2³P-type (L = 1) states by quadrature Galerkin, and their α² fine structure.
+r"""The ³P fine structure of L = 1 states, on the same basis and integrals as the energies.
 
-Basis functions (Cartesian components ``a = x, y, z`` of one L = 1 multiplet)
+The state is solved in a :class:`twoel.basis.p_basis.PBasis` with the exact pair integrals of
+:mod:`twoel.integrals.pairs` (``PBasis.matrices()`` and
+:func:`twoel.solver.eigen.solve_generalized`), i.e. the same variational route as the L = 1
+energies of :func:`twoel.solve`.  Its functions (Cartesian components ``a = x, y, z`` of one
+L = 1 multiplet; the basis stores the ``z`` one)
 
 .. math:: Φ^p_a = r_{1a}\, g_p(r_1, r_2, r_{12}) + σ\, r_{2a}\, g_p(r_2, r_1, r_{12}),\qquad
           g_p = r_1^i r_2^j r_{12}^k e^{-α r_1 - β r_2 - γ r_{12}},
 
-``σ = +1`` singlet, ``-1`` triplet (the same form as the P bases of the states work).  Traces over
-the multiplet (``Σ_a``) make every integrand a rotational scalar, so the matrices of the overlap,
-kinetic energy and potential and all fine-structure traces are integrals over ``r1, r2, r12``
-only (:mod:`twoel.corrections.quadrature` coordinates, evaluated in one frame).
+``σ = +1`` singlet, ``-1`` triplet.  Traces over the multiplet (``Σ_a``) make every integrand a
+rotational scalar, so the fine-structure traces are integrals over ``r1, r2, r12`` only.
 
-The quadrature (perimetric coordinates, smooth at r12 → 0; the nuclear spin–orbit trace on a
-grid smooth at r1 → 0) is not exact, so the Galerkin energy is not a strict upper bound: with
-32 nodes and ~120 functions it is within 1e-7 Eh of the 2³P energy; the fine-structure traces
-converge to ~1e-6 relative (tests check both).
+The three fine-structure operators (spin–orbit ``l_i/r_i³``, spin–other-orbit
+``(r_ij × p_i)/r_ij³`` and the spin–spin tensor ``(n_a n_b - δ_ab/3)/r12³``) have no piece in
+the pair evaluator: written as monomials of ``r1, r2, r12`` they contain individually divergent
+``r⁻³`` terms (like the orbit–orbit integrand, :mod:`twoel.corrections.quadrature`).  Their traces
+are therefore evaluated by quadrature of the solved wave function on the perimetric grid of
+:func:`twoel.corrections.quadrature.perimetric_grid` (``xy`` pair, smooth at r12 → 0; the
+nuclear spin–orbit trace on the ``yz`` pair, smooth at r1 → 0); with 32 nodes they converge to
+~1e-6 relative (tests check it).
 
-Fine structure (Bethe & Salpeter (1957) §39; anomalous moment ``a_e`` as in G. W. F. Drake,
-Springer Handbook of AMO Physics (2006), ch. 11), Hartree units:
+Fine structure (H. A. Bethe and E. E. Salpeter, Quantum Mechanics of One- and Two-Electron
+Atoms (1957) §39; anomalous moment ``a_e`` as in G. W. F. Drake, Springer Handbook of Atomic,
+Molecular and Optical Physics (2006), ch. 11), Hartree units:
 
 .. math::
 
@@ -34,15 +41,18 @@ In a ³L multiplet ``s_i → S/2``; within the L = 1 multiplet the orbital vecto
 
 from __future__ import annotations
 
-from dataclasses import asdict, dataclass
-from math import pi
+from dataclasses import dataclass
+from typing import ClassVar
 
 import numpy as np
 
 from twoel import constants
-from twoel.solver.eigen import solve_generalized
+from twoel.basis.hylleraas import omega_terms
+from twoel.basis.p_basis import PBasis
+from twoel.corrections.quadrature import decay_rates, perimetric_grid, primitive_factors
 from twoel.errors import InputError
-from twoel.corrections.quadrature import _laguerre
+from twoel.results import Result
+from twoel.solver.eigen import solve_generalized
 
 _CHUNK = 2048
 _LEVI = np.zeros((3, 3, 3))
@@ -53,40 +63,8 @@ for _a, _b, _c in ((0, 1, 2), (1, 2, 0), (2, 0, 1)):
 _L = -1j * np.transpose(_LEVI, (0, 1, 2))
 
 
-@dataclass(frozen=True)
-class PBasisSpec:
-    """Primitives of an L = 1 basis (powers and exponents of ``g``; ``α`` on the electron with ``r_a``)."""
-
-    powers: np.ndarray
-    exponents: np.ndarray
-    sign: int
-    contraction: np.ndarray | None = None
-
-    @property
-    def n_primitives(self) -> int:
-        return int(np.asarray(self.powers).shape[0])
-
-
-def _grid(nodes: int, rate_u: float, rate_z: float, pair: str = "xy"):
-    """Quadrature points; the pair of perimetric coordinates combined as (u v, u (1-v)) is
-    ``xy`` (smooth at r12 → 0) or ``yz`` (smooth at r1 → 0)."""
-    t, w = _laguerre(nodes)
-    v, wv = np.polynomial.legendre.leggauss(max(8, nodes // 2))
-    v, wv = 0.5 * (v + 1.0), 0.5 * wv
-    U, V, Zc = np.meshgrid(t / rate_u, v, t / rate_z, indexing="ij")
-    W = (w[:, None, None] / rate_u) * wv[None, :, None] * (w[None, None, :] / rate_z) * U
-    a, b = (U * V).ravel(), (U * (1.0 - V)).ravel()
-    c, W = Zc.ravel(), W.ravel()
-    if pair == "xy":
-        x, y, z = a, b, c
-    else:
-        y, z, x = a, b, c
-    r1, r2, r12 = 0.5 * (y + z), 0.5 * (x + z), 0.5 * (x + y)
-    return r1, r2, r12, W * 2 * pi * pi * r1 * r2 * r12
-
-
-def _frame(r1, r2, r12):
-    """Vectors r1 = r1 ẑ, r2 in the xz plane, shape (n, 3)."""
+def frame(r1, r2, r12):
+    """Vectors r1 = r1 ẑ, r2 in the xz plane (bohr), shape (n, 3)."""
     cos = np.clip((r1**2 + r2**2 - r12**2) / (2 * r1 * r2), -1.0, 1.0)
     sin = np.sqrt(np.maximum(0.0, 1.0 - cos**2))
     v1 = np.stack([np.zeros_like(r1), np.zeros_like(r1), r1], axis=1)
@@ -94,28 +72,23 @@ def _frame(r1, r2, r12):
     return v1, v2
 
 
-def _fields(spec: PBasisSpec, r1, r2, r12, v1, v2):
-    """Φ_a (n, P, 3) and ∂_{k e} Φ_a (n, P, 2, 3[e], 3[a]) for every primitive."""
-    p = np.asarray(spec.powers, dtype=float)
-    e = np.asarray(spec.exponents, dtype=float)
+def fields(basis: PBasis, r1, r2, r12, v1, v2):
+    """Φ_a (n, P, 3) and ∂_{k e} Φ_a (n, P, 2, 3[e], 3[a]) of every primitive at the points."""
+    p = np.asarray(basis.powers, dtype=float)
+    e = np.asarray(basis.exponents, dtype=float)
     n12 = (v1 - v2) / r12[:, None]
     u1 = v1 / r1[:, None]
     u2 = v2 / r2[:, None]
-    lr1, lr2, lr12 = np.log(r1), np.log(r2), np.log(r12)
 
     def prim(pp, ee):
-        g = np.exp(lr1[:, None] * pp[None, :, 0] + lr2[:, None] * pp[None, :, 1] + lr12[:, None] * pp[None, :, 2]
-                   - r1[:, None] * ee[None, :, 0] - r2[:, None] * ee[None, :, 1] - r12[:, None] * ee[None, :, 2])
-        A = pp[None, :, 0] / r1[:, None] - ee[None, :, 0]
-        B = pp[None, :, 1] / r2[:, None] - ee[None, :, 1]
-        C = pp[None, :, 2] / r12[:, None] - ee[None, :, 2]
+        g, A, B, C = primitive_factors(pp, ee, r1, r2, r12)
         grad1 = g[..., None] * (A[..., None] * u1[:, None, :] + C[..., None] * n12[:, None, :])
         grad2 = g[..., None] * (B[..., None] * u2[:, None, :] - C[..., None] * n12[:, None, :])
         return g, grad1, grad2
 
     g, g1, g2 = prim(p, e)
     h, h1, h2 = prim(p[:, [1, 0, 2]], e[:, [1, 0, 2]])
-    s = float(spec.sign)
+    s = float(basis.sign)
     phi = v1[:, None, :] * g[..., None] + s * v2[:, None, :] * h[..., None]
     eye = np.eye(3)
     d = np.empty(phi.shape[:2] + (2, 3, 3))
@@ -127,62 +100,66 @@ def _fields(spec: PBasisSpec, r1, r2, r12, v1, v2):
     return phi, d
 
 
-def _rates(spec):
-    e = np.asarray(spec.exponents, dtype=float)
-    s = np.minimum(e[:, 0], e[:, 1])
-    return max(float(np.min(s + e[:, 2])), 1e-3), max(float(np.min(e[:, 0] + e[:, 1])), 1e-3)
+@dataclass(frozen=True, repr=False)
+class FineStructure(Result):
+    """³P fine structure of one state.
+
+    Attributes
+    ----------
+    energy_hartree : float
+        Nonrelativistic energy of the state (Eh).
+    A_nuclear_au, A_electron_au, tensor_au : float
+        Reduced traces of ``Σ_i l_i/r_i³``, ``Σ_{i≠j} (r_ij × p_i)/r_ij³`` and of the tensor
+        ``(n_a n_b - δ_ab/3)/r12³`` in the L = 1 multiplet (bohr⁻³).
+    spin_orbit_hartree, spin_spin_hartree : float
+        ``A_so`` and ``B_ss`` of ``E_J`` (Eh, α² included).
+    levels_hartree : tuple of float
+        Shifts of J = 0, 1, 2 (Eh).
+    interval_01_hartree, interval_12_hartree : float
+        ``E(J=0) - E(J=1)`` and ``E(J=1) - E(J=2)`` (Eh).
+    """
+
+    ALIASES: ClassVar[dict] = {
+        "energy": "energy_hartree", "A_nuclear": "A_nuclear_au", "A_electron": "A_electron_au",
+        "tensor": "tensor_au", "a_so": "spin_orbit_hartree", "b_ss": "spin_spin_hartree",
+        "levels": "levels_hartree", "interval_01": "interval_01_hartree",
+        "interval_12": "interval_12_hartree"}
+    SUMMARY: ClassVar[tuple] = ("energy_hartree", "interval_01_hartree", "interval_12_hartree")
+
+    energy_hartree: float
+    A_nuclear_au: float
+    A_electron_au: float
+    tensor_au: float
+    spin_orbit_hartree: float
+    spin_spin_hartree: float
+    levels_hartree: tuple
+    interval_01_hartree: float
+    interval_12_hartree: float
 
 
-def p_matrices(spec: PBasisSpec, Z: float, nodes: int = 40):
-    """Overlap and Hamiltonian matrices ``Σ_a ⟨Φ^p_a|·|Φ^q_a⟩`` by quadrature."""
-    r1, r2, r12, W = _grid(nodes, *_rates(spec))
-    P = spec.n_primitives
-    S = np.zeros((P, P))
-    H = np.zeros((P, P))
-    for start in range(0, r1.shape[0], _CHUNK):
-        sl = slice(start, start + _CHUNK)
-        v1, v2 = _frame(r1[sl], r2[sl], r12[sl])
-        phi, d = _fields(spec, r1[sl], r2[sl], r12[sl], v1, v2)
-        w = W[sl]
-        V = -Z / r1[sl] - Z / r2[sl] + 1.0 / r12[sl]
-        fa = np.transpose(phi, (0, 2, 1)).reshape(-1, P)  # (n*3, P)
-        wa = np.repeat(w, 3)
-        S += fa.T @ (wa[:, None] * fa)
-        H += fa.T @ ((wa * np.repeat(V, 3))[:, None] * fa)
-        fd = np.transpose(d, (0, 2, 3, 4, 1)).reshape(-1, P)
-        wd = np.repeat(w, 18)
-        H += 0.5 * fd.T @ (wd[:, None] * fd)
-    C = spec.contraction
-    if C is not None:
-        S, H = C.T @ S @ C, C.T @ H @ C
-    return 0.5 * (S + S.T), 0.5 * (H + H.T)
-
-
-@dataclass(frozen=True)
-class FineStructure:
-    """³P fine structure (Eh): ``levels`` are the shifts of J = 0, 1, 2; intervals E0-E1, E1-E2."""
-
-    energy: float
-    A_nuclear: float
-    A_electron: float
-    tensor: float
-    a_so: float
-    b_ss: float
-    levels: tuple
-    interval_01: float
-    interval_12: float
-
-    def to_dict(self) -> dict:
-        return asdict(self)
-
-
-def fine_structure(spec: PBasisSpec, coefficients, Z: float, energy: float, nodes: int = 40,
+def fine_structure(basis: PBasis, coefficients, Z: float, energy: float, nodes: int = 40,
                    anomalous: bool = True) -> FineStructure:
-    """α² fine structure of a ³P state from its wavefunction (primitive basis ``spec``)."""
-    if spec.sign != -1:
+    """α² fine structure of a ³P state from its wave function.
+
+    Parameters
+    ----------
+    basis : PBasis
+        Triplet (sign -1) P basis of the state.
+    coefficients : array_like
+        Its coefficients in ``basis`` (any normalization).
+    Z : float
+        Nuclear charge.
+    energy : float
+        Nonrelativistic energy (Eh), reported with the result.
+    nodes : int
+        Gauss–Laguerre nodes of the trace quadrature.
+    anomalous : bool
+        Include the electron anomalous magnetic moment (CODATA g factor).
+    """
+    if basis.sign != -1:
         raise InputError("fine structure needs a triplet (sign -1) P wavefunction")
     c = np.asarray(coefficients, dtype=float)
-    weights = c if spec.contraction is None else spec.contraction @ c
+    weights = c if basis.contraction is None else basis.contraction @ c
     Lm = _L  # (c, a, b)
     T_L = np.zeros((3, 3, 3, 3), dtype=complex)  # T_ab(L) as 3x3 matrices
     for a in range(3):
@@ -190,11 +167,11 @@ def fine_structure(spec: PBasisSpec, coefficients, Z: float, energy: float, node
             T_L[a, b] = 0.5 * (Lm[a] @ Lm[b] + Lm[b] @ Lm[a]) - (2.0 / 3.0) * np.eye(3) * (a == b)
     sums = {"norm": 0.0, "n": 0.0, "e": 0.0, "q": 0.0, "norm_yz": 0.0}
     for pair in ("xy", "yz"):
-        r1, r2, r12, W = _grid(nodes, *_rates(spec), pair=pair)
+        r1, r2, r12, W, _u = perimetric_grid(nodes, *decay_rates(basis), pair=pair)
         for start in range(0, r1.shape[0], _CHUNK):
             sl = slice(start, start + _CHUNK)
-            v1, v2 = _frame(r1[sl], r2[sl], r12[sl])
-            phi, d = _fields(spec, r1[sl], r2[sl], r12[sl], v1, v2)
+            v1, v2 = frame(r1[sl], r2[sl], r12[sl])
+            phi, d = fields(basis, r1[sl], r2[sl], r12[sl], v1, v2)
             psi = np.einsum("npa,p->na", phi, weights)  # (n, 3)
             dpsi = np.einsum("npkea,p->nkea", d, weights)  # (n, 2, e, a)
             w = W[sl]
@@ -236,40 +213,41 @@ def fine_structure(spec: PBasisSpec, coefficients, Z: float, energy: float, node
     levels = []
     for X in (-2.0, -1.0, 1.0):
         levels.append(a_so * X + b_ss * (X * X + 0.5 * X - 4.0 / 3.0))
-    return FineStructure(energy=energy, A_nuclear=A_n, A_electron=A_e, tensor=cq, a_so=a_so, b_ss=b_ss,
-                         levels=tuple(levels), interval_01=levels[0] - levels[1],
-                         interval_12=levels[1] - levels[2])
+    return FineStructure(energy_hartree=energy, A_nuclear_au=A_n, A_electron_au=A_e, tensor_au=cq,
+                         spin_orbit_hartree=a_so, spin_spin_hartree=b_ss, levels_hartree=tuple(levels),
+                         interval_01_hartree=levels[0] - levels[1],
+                         interval_12_hartree=levels[1] - levels[2])
 
 
-def omega_spec(sectors, sign: int) -> PBasisSpec:
-    """A P basis from sectors ``[(ω, α, β)]``: all ``i + j + k <= ω`` with exponents ``(α, β, 0)``."""
-    powers, exps = [], []
-    for omega, a, b in sectors:
-        for total in range(omega + 1):
-            for k in range(total + 1):
-                for i in range(total - k + 1):
-                    powers.append((i, total - k - i, k))
-                    exps.append((a, b, 0.0))
-    return PBasisSpec(np.array(powers), np.array(exps), sign)
-
-
-def solve_p(spec: PBasisSpec, Z: float, root: int = 0, nodes: int = 40,
-            drop_threshold: float = 1e-11):
-    """Lowest roots of the L = 1 block; returns (energy, coefficients)."""
-    S, H = p_matrices(spec, Z, nodes)
-    eig = solve_generalized(H, S, drop_threshold=drop_threshold)
-    return float(eig.values[root]), eig.vectors[:, root]
-
-
-#: basis used by :func:`helium_like_3p_fine_structure`: [(ω, α·(Z-1)/1, β·Z/2)]
+#: sectors of the preset 2³P basis: [(ω, α/(Z-1), β/(Z/2))]; α belongs to the electron with z
 P_PRESET = [(6, 0.55, 2.0), (4, 1.2, 2.2)]
+
+
+def preset_p_basis(Z: float, sign: int = -1) -> PBasis:
+    """Two-scale Hylleraas P basis of the preset (all ``i + j + k <= ω`` of each sector).
+
+    The outer (p) electron carries ``α = a (Z - 1)``, the inner one ``β = b Z / 2``; the terms
+    are those of :func:`twoel.basis.hylleraas.omega_terms` with two exponents.
+    """
+    if Z < 1.5:
+        raise InputError("the 2^3P state needs Z >= 2")
+    powers, exponents = [], []
+    for omega, a, b in P_PRESET:
+        terms = omega_terms(omega, False, sign)
+        powers += terms
+        exponents += [(a * (Z - 1.0), b * Z / 2.0, 0.0)] * len(terms)
+    return PBasis(np.array(exponents), sign=sign, powers=np.array(powers))
+
+
+def solve_p_state(basis: PBasis, Z: float, root: int = 0) -> tuple[float, np.ndarray]:
+    """Variational energy (Eh) and coefficients of one root, exact pair integrals."""
+    m = basis.matrices()
+    eig = solve_generalized(m.hamiltonian(Z), m.overlap)
+    return float(eig.values[root]), eig.vectors[:, root]
 
 
 def helium_like_3p_fine_structure(Z: float, nodes: int = 32) -> FineStructure:
     """2³P_J fine structure of a helium-like ion from the preset 2³P basis (Eh)."""
-    sectors = [(w, a * (Z - 1.0), b * Z / 2.0) for w, a, b in P_PRESET]
-    if Z < 1.5:
-        raise InputError("the 2^3P state needs Z >= 2")
-    spec = omega_spec(sectors, -1)
-    energy, c = solve_p(spec, Z, 0, nodes)
-    return fine_structure(spec, c, Z, energy, nodes)
+    basis = preset_p_basis(Z, -1)
+    energy, c = solve_p_state(basis, Z, 0)
+    return fine_structure(basis, c, Z, energy, nodes)

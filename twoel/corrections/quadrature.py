@@ -34,35 +34,80 @@ def _laguerre(n: int):
     return x, w * np.exp(x)
 
 
+def primitive_factors(powers, exponents, r1, r2, r12):
+    """Primitive values ``g = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` at the points and their
+    logarithmic derivatives ``∂ln g/∂r1``, ``∂ln g/∂r2``, ``∂ln g/∂r12`` (bohr⁻¹), each
+    of shape (points, primitives)."""
+    p = np.asarray(powers, dtype=float)
+    e = np.asarray(exponents, dtype=float)
+    lr1, lr2, lr12 = np.log(r1), np.log(r2), np.log(r12)
+    log_g = (lr1[:, None] * p[None, :, 0] + lr2[:, None] * p[None, :, 1] + lr12[:, None] * p[None, :, 2]
+             - r1[:, None] * e[None, :, 0] - r2[:, None] * e[None, :, 1] - r12[:, None] * e[None, :, 2])
+    return (np.exp(log_g), p[None, :, 0] / r1[:, None] - e[None, :, 0],
+            p[None, :, 1] / r2[:, None] - e[None, :, 1], p[None, :, 2] / r12[:, None] - e[None, :, 2])
+
+
 def _fields(basis, weights, r1, r2, r12):
     """ψ and its partial derivatives ∂ψ/∂r1, ∂ψ/∂r2, ∂ψ/∂r12 at the given points."""
     psi = np.zeros_like(r1)
     d1 = np.zeros_like(r1)
     d2 = np.zeros_like(r1)
     dc = np.zeros_like(r1)
-    lr1, lr2, lr12 = np.log(r1), np.log(r2), np.log(r12)
     for swapped, sign in ((False, 1.0), (True, float(basis.sign))):
         p = basis.powers[:, [1, 0, 2]] if swapped else basis.powers
         e = basis.exponents[:, [1, 0, 2]] if swapped else basis.exponents
-        # chi[pt, prim]
-        log_chi = (lr1[:, None] * p[None, :, 0] + lr2[:, None] * p[None, :, 1] + lr12[:, None] * p[None, :, 2]
-                   - r1[:, None] * e[None, :, 0] - r2[:, None] * e[None, :, 1] - r12[:, None] * e[None, :, 2])
-        chi = np.exp(log_chi) * (sign * weights)[None, :]
+        g, A, B, C = primitive_factors(p, e, r1, r2, r12)
+        chi = g * (sign * weights)[None, :]
         psi += chi.sum(axis=1)
-        d1 += (chi * (p[None, :, 0] / r1[:, None] - e[None, :, 0])).sum(axis=1)
-        d2 += (chi * (p[None, :, 1] / r2[:, None] - e[None, :, 1])).sum(axis=1)
-        dc += (chi * (p[None, :, 2] / r12[:, None] - e[None, :, 2])).sum(axis=1)
+        d1 += (chi * A).sum(axis=1)
+        d2 += (chi * B).sum(axis=1)
+        dc += (chi * C).sum(axis=1)
     return psi, d1, d2, dc
 
 
-def _rates(basis):
+def decay_rates(basis) -> tuple[float, float]:
+    """Slowest decay rates of ψ² along the perimetric ``x`` (and ``y``) and ``z`` axes (bohr⁻¹).
+
+    A primitive pair decays as ``exp(-(β+γ)x - (α+γ)y - (α+β)z)``; the slowest over the
+    primitives and both electron orders scales the Gauss–Laguerre nodes.
+    """
     e = basis.exponents
-    # ψ² decays as exp(-(β+γ)x - (α+γ)y - (α+β)z) per primitive; take the slowest, both orders
     a, b, g = e[:, 0], e[:, 1], e[:, 2]
     s = np.minimum(a, b)
-    rate_x = max(float(np.min(s + g)), 1e-3)
-    rate_z = max(float(np.min(a + b)), 1e-3)
-    return rate_x, rate_x, rate_z
+    return max(float(np.min(s + g)), 1e-3), max(float(np.min(a + b)), 1e-3)
+
+
+def perimetric_grid(nodes: int, rate_u: float, rate_z: float, pair: str = "xy"):
+    """Quadrature points and weights over all of ``(r1, r2, r12)`` space (module docstring).
+
+    Parameters
+    ----------
+    nodes : int
+        Gauss–Laguerre nodes for ``u`` and the third perimetric coordinate (``nodes // 2``, at
+        least 8, Gauss–Legendre nodes for ``v``).
+    rate_u, rate_z : float
+        Decay rates (bohr⁻¹) that scale the Laguerre nodes (:func:`decay_rates`).
+    pair : {"xy", "yz"}
+        The perimetric pair written as ``(u v, u (1 - v))``: ``xy`` is smooth at ``r12 → 0``,
+        ``yz`` at ``r1 → 0``.
+
+    Returns
+    -------
+    r1, r2, r12, measure, u_index : ndarray
+        Points (bohr), weights including ``2π² r1 r2 r12`` (bohr⁶), and the index of each
+        point's ``u`` node.
+    """
+    t, w = _laguerre(nodes)
+    v, wv = np.polynomial.legendre.leggauss(max(8, nodes // 2))
+    v, wv = 0.5 * (v + 1.0), 0.5 * wv
+    U, V, Zc = np.meshgrid(t / rate_u, v, t / rate_z, indexing="ij")
+    W = (w[:, None, None] / rate_u) * wv[None, :, None] * (w[None, None, :] / rate_z) * U
+    a, b = (U * V).ravel(), (U * (1.0 - V)).ravel()
+    c, W = Zc.ravel(), W.ravel()
+    x, y, z = (a, b, c) if pair == "xy" else (c, a, b)
+    r1, r2, r12 = 0.5 * (y + z), 0.5 * (x + z), 0.5 * (x + y)
+    u_index = np.repeat(np.arange(t.shape[0]), V.shape[1] * V.shape[2])
+    return r1, r2, r12, W * 2 * pi * pi * r1 * r2 * r12, u_index
 
 
 def quadrature_expectations(wavefunction, nodes: int = DEFAULT_NODES,
@@ -96,20 +141,13 @@ def quadrature_expectations(wavefunction, nodes: int = DEFAULT_NODES,
     if nodes < 8 or nodes > 200:
         raise InputError("quadrature nodes must be between 8 and 200")
     t, w = _laguerre(nodes)
-    v, wv = np.polynomial.legendre.leggauss(max(8, nodes // 2))
-    v, wv = 0.5 * (v + 1.0), 0.5 * wv
-    su, _sy, sz = _rates(basis)
-    U, V, Zc = np.meshgrid(t / su, v, t / sz, indexing="ij")
-    W = (w[:, None, None] / su) * wv[None, :, None] * (w[None, None, :] / sz) * U
-    X, Y = (U * V).ravel(), (U * (1.0 - V)).ravel()
-    Zc, W = Zc.ravel(), W.ravel()
+    su, sz = decay_rates(basis)
+    R1, R2, R12, MEASURE, u_index = perimetric_grid(nodes, su, sz)
     sums = {"norm": 0.0, "inv_r12": 0.0, "p1_dot_p2": 0.0, "orbit_orbit": 0.0}
-    u_index = np.repeat(np.arange(t.shape[0]), V.shape[1] * V.shape[2])
     shell = np.zeros(t.shape[0])  # G(u_i) times the u weight
-    for start in range(0, X.shape[0], _CHUNK):
-        x, y, z, wt = X[start:start + _CHUNK], Y[start:start + _CHUNK], Zc[start:start + _CHUNK], W[start:start + _CHUNK]
-        r1, r2, r12 = 0.5 * (y + z), 0.5 * (x + z), 0.5 * (x + y)
-        measure = wt * 2 * pi * pi * r1 * r2 * r12
+    for start in range(0, R1.shape[0], _CHUNK):
+        sl = slice(start, start + _CHUNK)
+        r1, r2, r12, measure = R1[sl], R2[sl], R12[sl], MEASURE[sl]
         psi, a, b, cc = _fields(basis, weights, r1, r2, r12)
         c12 = (r1**2 + r2**2 - r12**2) / (2 * r1 * r2)
         c1n = (r1**2 + r12**2 - r2**2) / (2 * r1 * r12)
@@ -118,7 +156,7 @@ def quadrature_expectations(wavefunction, nodes: int = DEFAULT_NODES,
         n1 = a * c1n + cc
         n2 = b * c2n - cc
         sums["norm"] += float(np.sum(measure * psi * psi))
-        np.add.at(shell, u_index[start:start + _CHUNK], measure * psi * psi)
+        np.add.at(shell, u_index[sl], measure * psi * psi)
         sums["inv_r12"] += float(np.sum(measure * psi * psi / r12))
         sums["p1_dot_p2"] += float(np.sum(measure * g1g2))
         sums["orbit_orbit"] += float(np.sum(measure * (g1g2 + n1 * n2) / r12))

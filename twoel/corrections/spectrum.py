@@ -30,6 +30,7 @@ from twoel._version import __version__
 from twoel.solver.eigen import solve_generalized
 from twoel.errors import InputError, NotBoundError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
+from twoel.basis.hylleraas import omega_terms
 from twoel.reference import all_references
 from twoel.results import Wavefunction
 from twoel.system import Ion, State
@@ -54,11 +55,6 @@ _PRESETS = {
 QUALITIES = ("fast", "default")
 
 
-def _omega_terms(omega: int) -> list[tuple[int, int, int]]:
-    return [(i, j, k) for total in range(omega + 1) for k in range(total + 1)
-            for i in range(total - k + 1) for j in [total - k - i]]
-
-
 def preset_basis(Z: float, state: State, quality: str = "default") -> CorrelatedBasis:
     """A fixed double-sector Hylleraas basis ``Σ r1^i r2^j r12^k e^{-α r1 - β r2}`` for the state.
 
@@ -75,14 +71,14 @@ def preset_basis(Z: float, state: State, quality: str = "default") -> Correlated
         key = "ground" if Z >= 1.5 else "ground_h"
         for omega, a, b in _PRESETS[key][quality]:
             scale = Z / 2 if key == "ground" else Z
-            t = _omega_terms(omega)
+            t = omega_terms(omega, False, state.exchange_sign)
             powers += t
             exps += [(a * 2 * scale, b * 2 * scale, 0.0)] * len(t) if key == "ground" else [(a * Z, b * Z, 0.0)] * len(t)
     else:
         if Z < 1.5:
             raise UnsupportedError(f"{state.label} is not bound for Z = {Z:g}")
         for omega, a, b in _PRESETS["excited"][quality]:
-            t = _omega_terms(omega)
+            t = omega_terms(omega, False, state.exchange_sign)
             powers += t
             exps += [(a * Z, b * (Z - 1.0), 0.0)] * len(t)
     return CorrelatedBasis(np.array(powers), np.array(exps), sign=state.exchange_sign)
@@ -315,14 +311,14 @@ def compute_fine_structure(Z, state="2^3P", nodes: int = 32) -> dict:
     fs = helium_like_3p_fine_structure(ion.Z, nodes)
     out = {"Z": ion.Z, "ion": ion.label, "state": st.label,
            "ionization_energy_cm1": None, "contributions_cm1": {}, "reference_cm1": None, "residual": None,
-           "energy_nonrelativistic_hartree": fs.energy, "fine_structure": {}, "cautions": [], "notes": [
+           "energy_nonrelativistic_hartree": fs.energy_hartree, "fine_structure": {}, "cautions": [], "notes": [
                "α² Breit–Pauli spin–orbit, spin–other-orbit and spin–spin terms with the electron "
                "anomalous moment; α³ and higher corrections to the intervals are not included "
                "(about 1e-4 relative for He)",
                "centroid ionization energy of P states not computed (S-state corrections only)"]}
     measured = {r.quantity: r for r in all_references(MEASURED_TABLE)
                 if r.Z == ion.Z and r.state == st.label}
-    for key, value in (("interval_01", fs.interval_01), ("interval_12", fs.interval_12)):
+    for key, value in (("interval_01", fs.interval_01_hartree), ("interval_12", fs.interval_12_hartree)):
         entry = {"mhz": hartree_to(value, "mhz"), "cm1": _cm1(value), "measured_mhz": None,
                  "source": None, "relative_residual": None}
         row = measured.get(f"fine_structure_{key}")
@@ -334,11 +330,14 @@ def compute_fine_structure(Z, state="2^3P", nodes: int = 32) -> dict:
     if za > CAUTION_Z_ALPHA:
         out["cautions"].append(f"Zα = {za:.3f} > {CAUTION_Z_ALPHA}: first-order Breit–Pauli fine structure "
                                "is inadequate; use fully relativistic methods")
-    out["fine_structure"]["parameters_hartree"] = {"spin_orbit": fs.a_so, "spin_spin": fs.b_ss,
-                                                   "A_nuclear": fs.A_nuclear, "A_electron": fs.A_electron,
-                                                   "tensor": fs.tensor}
+    out["fine_structure"]["parameters_hartree"] = {"spin_orbit": fs.spin_orbit_hartree,
+                                                   "spin_spin": fs.spin_spin_hartree,
+                                                   "A_nuclear": fs.A_nuclear_au,
+                                                   "A_electron": fs.A_electron_au,
+                                                   "tensor": fs.tensor_au}
     out["provenance"] = {"package": "twoel", "version": __version__, "method":
-                         "quadrature Galerkin 2^3P + first-order Breit–Pauli fine structure",
+                         "variational 2^3P (exact pair integrals, two-scale Hylleraas P basis) + first-order "
+                         "Breit–Pauli fine structure (traces by quadrature)",
                          "quadrature_nodes": nodes, "constants": constants.CODATA_EDITION,
                          "elapsed_seconds": time.perf_counter() - started}
     return out
