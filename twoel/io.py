@@ -9,18 +9,60 @@ Folders of output (a report) are built with :func:`atomic_directory`: everything
 hidden temporary folder beside the target, which is renamed into place only when the whole
 build succeeded.  An existing target is refused unless ``overwrite=True``.
 
+:func:`dumps_json` is the one JSON encoder of twoel's output (command line, report provenance):
+standard JSON without NaN/Infinity literals, NumPy scalars and arrays as plain numbers and lists.
+
 These helpers are self-contained (no other twoel module is needed except :mod:`twoel.errors`).
 """
 
 from __future__ import annotations
 
 import contextlib
+import json
+import math
 import os
 import shutil
 import tempfile
 from pathlib import Path
 
 from twoel.errors import InputError
+
+
+def _json_default(value):
+    if hasattr(value, "item"):
+        return value.item()
+    if hasattr(value, "tolist"):
+        return value.tolist()
+    if hasattr(value, "to_dict"):
+        return value.to_dict()
+    raise TypeError(f"not JSON serializable: {type(value).__name__}")
+
+
+def _finite_json(value):
+    """Replace non-finite floats by the strings ``"inf"``, ``"-inf"``, ``"nan"`` (standard JSON)."""
+    if isinstance(value, float) and not math.isfinite(value):
+        return "inf" if value > 0 else ("-inf" if value < 0 else "nan")
+    if isinstance(value, dict):
+        return {k: _finite_json(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_finite_json(v) for v in value]
+    return value
+
+
+def dumps_json(obj) -> str:
+    """Standard JSON text of ``obj`` (indent 2, UTF-8 characters kept, no NaN/Infinity literals).
+
+    Parameters
+    ----------
+    obj : object
+        Plain data; NumPy scalars/arrays and objects with ``to_dict()`` are converted.
+
+    Returns
+    -------
+    str
+        The JSON text, without a final newline.
+    """
+    return json.dumps(_finite_json(obj), indent=2, ensure_ascii=False, default=_json_default)
 
 
 def _default_mode(directory: bool = False) -> int:

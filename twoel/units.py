@@ -7,23 +7,28 @@ case-insensitively against the aliases below; an unknown name raises :class:`Inp
 
 from __future__ import annotations
 
-import numpy as np
+from functools import lru_cache
 
-from twoel import constants as C
 from twoel.errors import InputError
 
-#: energy of one unit, in hartree
-_HARTREE_PER_UNIT = {
-    "hartree": 1.0,
-    "mhartree": 1e-3,
-    "ev": 1.0 / C.HARTREE_EV.value,
-    "cm-1": 1.0 / (C.HARTREE_INVERSE_M.value / 100.0),
-    "mhz": 1e6 / C.HARTREE_HZ.value,
-    "thz": 1e12 / C.HARTREE_HZ.value,
-    "kj/mol": 1e3 / (C.HARTREE_J.value * C.AVOGADRO.value),
-    "kcal/mol": 4.184e3 / (C.HARTREE_J.value * C.AVOGADRO.value),
-    "rydberg": 0.5,
-}
+#: units whose size in hartree is exact (no measured constant involved)
+_EXACT_HARTREE_PER_UNIT = {"hartree": 1.0, "mhartree": 1e-3, "rydberg": 0.5}
+
+
+@lru_cache(maxsize=None)
+def _codata_hartree_per_unit() -> dict[str, float]:
+    """Energy of one laboratory unit in hartree, from CODATA (loaded on first use only)."""
+    from twoel import constants as C
+
+    return {
+        "ev": 1.0 / C.HARTREE_EV.value,
+        "cm-1": 1.0 / (C.HARTREE_INVERSE_M.value / 100.0),
+        "mhz": 1e6 / C.HARTREE_HZ.value,
+        "thz": 1e12 / C.HARTREE_HZ.value,
+        "kj/mol": 1e3 / (C.HARTREE_J.value * C.AVOGADRO.value),
+        "kcal/mol": 4.184e3 / (C.HARTREE_J.value * C.AVOGADRO.value),
+    }
+
 
 _ALIASES = {
     "eh": "hartree", "ha": "hartree", "au": "hartree", "a.u.": "hartree", "hartrees": "hartree",
@@ -49,14 +54,17 @@ def canonical_unit(name: str) -> str:
         raise InputError(f"unit must be a string, got {name!r}")
     key = name.strip().lower()
     key = _ALIASES.get(key, key)
-    if key not in _HARTREE_PER_UNIT:
+    if key not in ENERGY_UNITS:
         raise InputError(f"unknown energy unit {name!r}; known units: {', '.join(ENERGY_UNITS)}")
     return key
 
 
 def hartree_per(unit: str) -> float:
-    """Energy of one ``unit`` in hartree."""
-    return _HARTREE_PER_UNIT[canonical_unit(unit)]
+    """Energy of one ``unit`` in hartree (exact, or from CODATA via :mod:`twoel.constants`)."""
+    key = canonical_unit(unit)
+    if key in _EXACT_HARTREE_PER_UNIT:
+        return _EXACT_HARTREE_PER_UNIT[key]
+    return _codata_hartree_per_unit()[key]
 
 
 def convert_energy(value, from_unit: str, to_unit: str):
@@ -70,6 +78,10 @@ def convert_energy(value, from_unit: str, to_unit: str):
         Unit names, e.g. ``"hartree"``, ``"eV"``, ``"cm-1"``, ``"MHz"``, ``"kJ/mol"``.
     """
     factor = hartree_per(from_unit) / hartree_per(to_unit)
+    if isinstance(value, (int, float)):
+        return float(value) * factor
+    import numpy as np
+
     if np.ndim(value) == 0:
         return float(value) * factor
     return np.asarray(value, dtype=float) * factor
@@ -92,5 +104,7 @@ def all_units(value_hartree: float) -> dict[str, float]:
 
 def wavelength_vacuum_nm(energy_hartree: float) -> float:
     """Vacuum wavelength (nm) of a photon with the given energy (Eh); ``inf`` for zero energy."""
+    from twoel import constants as C
+
     wavenumber_per_m = abs(energy_hartree) * C.HARTREE_INVERSE_M.value
     return float("inf") if wavenumber_per_m == 0 else 1e9 / wavenumber_per_m

@@ -8,19 +8,30 @@ gives bit-for-bit the numbers of a serial one.
 
 :func:`series_frame` (one state over a range of Z) and :func:`convergence_frame` (one ion over
 basis sizes) turn the results into :class:`pandas.DataFrame` tables, the input of
-:mod:`twoel.report.tables` and :mod:`twoel.report.plots`.  No file I/O happens here; progress
-bars go to stderr only when asked for and stderr is a terminal.
+:mod:`twoel.report.tables` and :mod:`twoel.report.plots`.  No file I/O and no display happen
+here: a caller that shows progress passes a callback ``progress(done, total)`` (the command line
+passes its progress bar, :func:`twoel.cli.progress.counter`).
 """
 
 from __future__ import annotations
 
 import math
 import os
-from typing import Sequence
+from typing import Callable, Sequence, Union
 
 import numpy as np
 
 from twoel.errors import InputError
+
+#: ``progress(done, total)`` called after each finished task; ``None``/``False``: no callback.
+#: ``True`` is still accepted (it used to ask for a bar) and calls nothing: a display is the
+#: caller's business.
+Progress = Union[Callable[[int, int], None], bool, None]
+
+
+def _callback(progress: Progress):
+    """The callable of ``progress`` (booleans and ``None`` mean: nobody is listening)."""
+    return progress if callable(progress) else None
 
 
 def resolve_jobs(jobs: int | None, n_tasks: int) -> int:
@@ -44,7 +55,7 @@ def _solve_task(task: dict):
         return solve(**task)
 
 
-def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = False,
+def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: Progress = None,
                description: str = "solving") -> list:
     """Run ``solve(**task)`` for every task; results in task order.
 
@@ -54,8 +65,10 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
         Keyword arguments of :func:`twoel.solve` (``Z`` included).
     jobs : int or None
         Worker processes (1 or ``None``: serial in this process; 0: one per core).
-    progress : bool
-        Show a tqdm bar on an interactive stderr.
+    progress : callable, optional
+        Called as ``progress(done, total)`` after each finished task (in task order).
+    description : str
+        Kept for compatibility (the caller's display names the sweep).
 
     Returns
     -------
@@ -68,12 +81,16 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
     matrices of these bases a multi-threaded BLAS is slower, not faster, on a busy machine:
     ``OPENBLAS_NUM_THREADS=1`` in the environment speeds up serial and parallel runs alike.
     """
-    from twoel.cli.progress import iterate
-
     tasks = [dict(t) for t in tasks]
+    report = _callback(progress)
     workers = resolve_jobs(jobs, len(tasks))
+    results = []
     if workers == 1:
-        return [_solve_task(t) for t in iterate(tasks, description, enabled=progress)]
+        for task in tasks:
+            results.append(_solve_task(task))
+            if report is not None:
+                report(len(results), len(tasks))
+        return results
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor
 
@@ -83,11 +100,10 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: bool = Fal
     method = "fork" if "fork" in multiprocessing.get_all_start_methods() else "spawn"
     with ProcessPoolExecutor(max_workers=workers,
                              mp_context=multiprocessing.get_context(method)) as pool:
-        mapped = pool.map(_solve_task, tasks, chunksize=1)  # yields in submission order
-        bar = iterate(range(len(tasks)), description, enabled=progress)
-        results = []
-        for _ in bar:
-            results.append(next(mapped))
+        for result in pool.map(_solve_task, tasks, chunksize=1):  # yields in submission order
+            results.append(result)
+            if report is not None:
+                report(len(results), len(tasks))
         return results
 
 
@@ -123,7 +139,7 @@ def series_tasks(charges, keywords: dict) -> list[dict]:
     return [{"Z": Z, **keywords} for Z in charges]
 
 
-def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | None = 1,
+def series_frame(charges, keywords: dict, progress: Progress = None, jobs: int | None = 1,
                  results: list | None = None):
     """Solve for every charge and collect one row per ion (a :class:`pandas.DataFrame`).
 
@@ -164,7 +180,7 @@ def convergence_tasks(Z, sizes, keywords: dict) -> list[dict]:
     return [{"Z": Z, **{**keywords, "size": int(s)}} for s in sizes]
 
 
-def convergence_frame(Z, sizes, keywords: dict, progress: bool = False, jobs: int | None = 1,
+def convergence_frame(Z, sizes, keywords: dict, progress: Progress = None, jobs: int | None = 1,
                       results: list | None = None):
     """Energies of one ion over growing basis sizes, with increments and a limit estimate.
 

@@ -15,7 +15,7 @@ from twoel._version import __version__
 from twoel.errors import TwoelError
 from twoel.cli.common import TwoelArgumentParser
 
-#: modules of twoel.cli that define a command, in help order (absent ones are skipped)
+#: modules of twoel.cli that define a command, in help order
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
                    "check", "report")
 
@@ -29,13 +29,7 @@ def build_parser() -> TwoelArgumentParser:
     parser.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
     subparsers = parser.add_subparsers(title="commands", metavar="COMMAND", parser_class=TwoelArgumentParser)
     for name in COMMAND_MODULES:
-        try:
-            module = importlib.import_module(f"{__name__}.{name}")
-        except ModuleNotFoundError as exc:
-            if exc.name == f"{__name__}.{name}":
-                continue  # command not built yet
-            raise
-        module.add_parser(subparsers)
+        importlib.import_module(f"{__name__}.{name}").add_parser(subparsers)
     return parser
 
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import charge, dumps_json, write_output
+from twoel.cli.common import add_output_arguments, charge, dumps_json, write_output
 
 NAME = "check"
 HELP = ("judge total energies from other programs: error vs the exact nonrelativistic energy and "
@@ -27,8 +27,7 @@ def add_parser(subparsers) -> None:
                    help="output: a table with explanations (default), CSV or JSON")
     p.add_argument("--json", action="store_true",
                    help="same as --format json (one object for --energy, a list for --file)")
-    p.add_argument("--output", help="write to this file instead of stdout (atomically)")
-    p.add_argument("--force", action="store_true", help="allow --output to replace an existing file")
+    add_output_arguments(p, what="write to this file instead of stdout (atomically)")
     p.set_defaults(run=run)
 
 
@@ -101,8 +100,8 @@ def run(args: argparse.Namespace) -> int:
         text = to_csv(frame)
     else:
         text = _table_text(results, header)
-    if args.output:
-        write_output(args.output, text, overwrite=args.force)
+    if args.out:
+        write_output(args.out, text, overwrite=args.overwrite)
     else:
         sys.stdout.write(text)
     return 0

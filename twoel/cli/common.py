@@ -3,13 +3,11 @@
 from __future__ import annotations
 
 import argparse
-import json
 import math
 import sys
 
 from twoel.errors import InputError
-from twoel.system import parse_charge
-from twoel.units import UNIT_LABELS, hartree_to
+from twoel.io import dumps_json  # noqa: F401  (re-exported: the CLI's JSON encoder lives in twoel.io)
 
 
 class TwoelArgumentParser(argparse.ArgumentParser):
@@ -30,6 +28,8 @@ def positive_int(text: str) -> int:
 
 
 def charge(text: str) -> float:
+    from twoel.system import parse_charge
+
     try:
         return parse_charge(text)
     except InputError as exc:
@@ -67,15 +67,31 @@ def term_list(text: str) -> list[tuple[int, int, int]]:
     return terms
 
 
+class FamilyHelp(str):
+    """Help text of ``--family`` that lists the registered families only when help is printed.
+
+    argparse expands every help string with ``%`` when (and only when) it prints help, so the
+    family registry (which imports the numerical core) is not loaded while the parser is built.
+    """
+
+    def __new__(cls, template: str = "trial-function family: {names} (default hylleraas)"):
+        text = super().__new__(cls, template)
+        text.template = template
+        return text
+
+    def __mod__(self, params):
+        from twoel.basis import family_names
+
+        return self.template.format(names=", ".join(family_names())) % params
+
+
 def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | None = None) -> None:
     """Options that choose the trial family and its basis (shared by several commands)."""
-    from twoel.basis import family_names
-
     group = parser.add_argument_group("basis")
     group.add_argument("--state", default="1^1S",
                        help="term symbol: 1^1S (default), 2^3S, '2 3S', 2³S ...")
     group.add_argument("--family", default="hylleraas",
-                       help=f"trial-function family: {', '.join(family_names())} (default hylleraas)")
+                       help=FamilyHelp())
     group.add_argument("--size", type=positive_int, default=default_size,
                        help="the family's size parameter (ω for hylleraas); ignored by families without one")
     group.add_argument("--param", action="append", type=parameter_assignment, default=[],
@@ -110,37 +126,13 @@ def basis_keywords(args: argparse.Namespace) -> dict:
     }
 
 
-def _json_default(value):
-    if hasattr(value, "item"):
-        return value.item()
-    if hasattr(value, "tolist"):
-        return value.tolist()
-    if hasattr(value, "to_dict"):
-        return value.to_dict()
-    raise TypeError(f"not JSON serializable: {type(value).__name__}")
-
-
-def _clean(value):
-    """Replace non-finite floats by strings so that the JSON is standard."""
-    if isinstance(value, float) and not math.isfinite(value):
-        return "inf" if value > 0 else ("-inf" if value < 0 else "nan")
-    if isinstance(value, dict):
-        return {k: _clean(v) for k, v in value.items()}
-    if isinstance(value, (list, tuple)):
-        return [_clean(v) for v in value]
-    return value
-
-
-def dumps_json(obj) -> str:
-    """Standard JSON (no NaN/Infinity literals), UTF-8 text."""
-    return json.dumps(_clean(obj), indent=2, ensure_ascii=False, default=_json_default)
-
-
 def print_json(obj) -> None:
     sys.stdout.write(dumps_json(obj) + "\n")
 
 
 def energy_line(label: str, value_hartree: float | None, units=("hartree", "ev", "cm-1", "kj/mol", "mhz")) -> str:
+    from twoel.units import UNIT_LABELS, hartree_to
+
     if value_hartree is None:
         return f"{label}: —"
     parts = [f"{hartree_to(value_hartree, u):.12g} {UNIT_LABELS[u]}" for u in units]
@@ -171,22 +163,30 @@ def size_list(text: str) -> tuple[int, ...]:
     return tuple(sizes)
 
 
+def add_output_arguments(parser: argparse.ArgumentParser, what: str, group=None) -> None:
+    """The one option pair of every command that writes files: ``--out PATH`` and ``--overwrite``.
+
+    ``--output`` and ``--force`` are documented aliases (older spellings) of the same options.
+    ``group`` (e.g. a mutually exclusive group) receives ``--out`` instead of ``parser``.
+    """
+    (group or parser).add_argument("--out", "--output", dest="out", metavar="PATH",
+                                   help=f"{what} (--output is an alias)")
+    parser.add_argument("--overwrite", "--force", dest="overwrite", action="store_true",
+                        help="allow --out to replace an existing file or folder "
+                             "(--force is an alias)")
+
+
 def write_output(path: str, text: str, overwrite: bool = False) -> None:
-    """Write ``text`` to ``path`` atomically; refuse to replace an existing file unless asked."""
+    """Write ``text`` to ``path`` atomically (:mod:`twoel.io`); refuse to replace a file unless asked."""
     import os
-    import tempfile
+
+    from twoel.io import atomic_write_text
 
     if os.path.exists(path) and not overwrite:
-        raise InputError(f"output file {path!r} exists; pass --force to replace it")
+        raise InputError(f"output file {path!r} exists; pass --overwrite (or --force) to replace it")
+    if os.path.exists(path) and not os.path.isfile(path):
+        raise InputError(f"{path!r} is not a regular file; refusing to write there")
     folder = os.path.dirname(os.path.abspath(path))
     if not os.path.isdir(folder):
         raise InputError(f"output folder {folder!r} does not exist")
-    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".twoel-", suffix=".tmp")
-    try:
-        with os.fdopen(handle, "w", encoding="utf-8") as stream:
-            stream.write(text)
-        os.replace(temporary, path)
-    except BaseException:
-        if os.path.exists(temporary):
-            os.unlink(temporary)
-        raise
+    atomic_write_text(path, text)

@@ -76,18 +76,11 @@ def run(args: argparse.Namespace) -> int:
         sizes = default_sizes(args.largest, args.count)
     else:
         sizes = args.sizes
-    bar = None
-    if not args.quiet and not args.json and sys.stderr.isatty():
-        from tqdm import tqdm
+    from twoel.cli.progress import counter
 
-        bar = tqdm(total=len(sizes), desc="basis sizes", file=sys.stderr, leave=False)
-    try:
+    with counter("basis sizes", enabled=not args.quiet and not args.json, unit="size") as progress:
         study = run_study(args.Z, args.state, sizes, family=args.family, precision=args.precision,
-                          digits=args.digits,
-                          progress=(lambda done, total: bar.update(1)) if bar is not None else None)
-    finally:
-        if bar is not None:
-            bar.close()
+                          digits=args.digits, progress=progress)
     if args.json:
         print_json(study.to_dict())
     else:

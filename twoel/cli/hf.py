@@ -32,20 +32,6 @@ def add_parser(subparsers) -> None:
     p.set_defaults(run=run)
 
 
-def _progress(enabled: bool):
-    if not enabled or not sys.stderr.isatty():
-        return None, None
-    from tqdm import tqdm
-
-    bar = tqdm(desc="basis sizes", unit="size", file=sys.stderr, leave=False)
-
-    def update(size: int) -> None:
-        bar.set_postfix_str(f"N = {size}", refresh=False)
-        bar.update(1)
-
-    return update, bar
-
-
 def _convergence_frame(result, as_text: bool = False):
     """One row per basis size; ``as_text`` pre-formats the cells for the Markdown table."""
     import pandas as pd
@@ -142,19 +128,18 @@ def run(args: argparse.Namespace) -> int:
         return 0
     if args.Z is None:
         raise InputError("give --Z (or --correlation for the tabulated correlation energies)")
-    update, bar = _progress(not args.quiet and not args.json)
-    try:
+    from twoel.cli.progress import counter
+
+    with counter("basis sizes", enabled=not args.quiet and not args.json, unit="size") as update:
+        step = None if update is None else (lambda size: update())
         if args.split_shell:
             from twoel.scf.split_shell import DEFAULT_SPLIT_SIZES, split_shell_limit
 
-            result = split_shell_limit(args.Z, sizes=args.sizes or DEFAULT_SPLIT_SIZES, progress=update)
+            result = split_shell_limit(args.Z, sizes=args.sizes or DEFAULT_SPLIT_SIZES, progress=step)
         else:
             from twoel.scf.hartree_fock import DEFAULT_SIZES, hartree_fock_limit
 
-            result = hartree_fock_limit(args.Z, sizes=args.sizes or DEFAULT_SIZES, progress=update)
-    finally:
-        if bar is not None:
-            bar.close()
+            result = hartree_fock_limit(args.Z, sizes=args.sizes or DEFAULT_SIZES, progress=step)
     if args.json:
         print_json(result.to_dict())
         return 0

@@ -28,13 +28,30 @@ def optimizer_progress(enabled: bool = True):
         bar.close()
 
 
-def iterate(items, description: str, enabled: bool = True):
-    """Wrap an iterable in a progress bar on an interactive stderr."""
+@contextlib.contextmanager
+def counter(description: str, enabled: bool = True, unit: str = "it"):
+    """Yield a ``progress(done=None, total=None)`` callback that moves a tqdm bar, or ``None``.
+
+    Given ``done`` (and ``total``) the bar is set to them, as the sweeps and convergence studies
+    of the core report; called without them it advances by one.
+    """
     if not enabled or not sys.stderr.isatty():
-        return items
+        yield None
+        return
     from tqdm import tqdm
 
-    return tqdm(items, desc=description, file=sys.stderr, leave=False)
+    bar = tqdm(desc=description, unit=unit, file=sys.stderr, leave=False)
+
+    def update(done: int | None = None, total: int | None = None) -> None:
+        if total is not None:
+            bar.total = total
+        bar.n = bar.n + 1 if done is None else done
+        bar.refresh()
+
+    try:
+        yield update
+    finally:
+        bar.close()
 
 
 def stage_reporter(enabled: bool = True):

@@ -34,7 +34,7 @@ def add_parser(subparsers) -> None:
     p.add_argument("--family", default=None, help="trial family (default: exponential, else hylleraas)")
     p.add_argument("--size", type=positive_int, default=None, help="basis size")
     p.add_argument("--hylleraas-preset", choices=("fast", "default"), default=None,
-                   help="use the fixed double-sector Hylleraas basis of the corrections instead "
+                   help="use the fixed two-scale Hylleraas basis of the corrections instead "
                         "(1^1S, 2^1S, 2^3S; its delta functions converge to ~1e-8)")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=run)
@@ -56,7 +56,7 @@ def summary_text(result, values) -> str:
 
 
 def _preset_state(Z: float, state_text: str, quality: str):
-    """Solve in the preset double-sector Hylleraas basis; returns a result-like record and values."""
+    """Solve in the preset two-scale Hylleraas basis; returns a result-like record and values."""
     from types import SimpleNamespace
 
     from twoel.corrections.spectrum import preset_basis
@@ -71,7 +71,7 @@ def _preset_state(Z: float, state_text: str, quality: str):
     sol = solve_generalized(m.hamiltonian(ion.Z), m.overlap)
     energy = float(sol.values[state.root])
     result = SimpleNamespace(Z=ion.Z, ion=ion.label, state=state.label, size=None,
-                             family=f"hylleraas double-sector preset ({quality})",
+                             family=f"hylleraas two-scale preset ({quality})",
                              n_terms=basis.size, energy_hartree=energy)
     return result, expectation_values(Wavefunction(basis, sol.vectors[:, state.root]), ion.Z)
 

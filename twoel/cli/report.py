@@ -7,7 +7,7 @@ import sys
 from pathlib import Path
 
 from twoel.errors import InputError
-from twoel.cli.common import positive_int
+from twoel.cli.common import add_output_arguments, positive_int
 
 NAME = "report"
 HELP = "write a report folder (tables, figures, index page, provenance) from a configuration"
@@ -26,8 +26,7 @@ def add_parser(subparsers) -> None:
                         help="re-run the report recorded in a provenance.json and compare every number")
     where = p.add_mutually_exclusive_group()
     where.add_argument("--name", help=f"folder name under ./{DEFAULT_ROOT}/ (default: the configuration's name)")
-    where.add_argument("--out", metavar="DIR", help="the folder to write")
-    p.add_argument("--overwrite", action="store_true", help="replace an existing folder")
+    add_output_arguments(p, what="the folder to write", group=where)
     p.add_argument("--html", action="store_true", help="also write index.html")
     p.add_argument("--jobs", type=positive_int, default=1,
                    help="worker processes (default 1 = serial; 0 = one per core); same numbers")
@@ -42,13 +41,19 @@ def _target(args, name: str) -> Path:
 
 
 def run(args: argparse.Namespace) -> int:
+    if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):
+        raise InputError(f"--name must be a plain folder name, got {args.name!r} (use --out for a path)")
+    from twoel.cli.progress import counter
+
+    with counter("report", enabled=not args.quiet, unit="solve") as progress:
+        return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
+                           "progress": progress})
+
+
+def _run(args: argparse.Namespace, common: dict) -> int:
     from twoel.report.build import (DEMO_CONFIG, build_report, load_config, normalize_config,
                                 read_provenance, rebuild_from_provenance)
 
-    if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):
-        raise InputError(f"--name must be a plain folder name, got {args.name!r} (use --out for a path)")
-    common = {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
-              "progress": not args.quiet}
     if args.from_provenance:
         data = read_provenance(args.from_provenance)
         out = _target(args, data["config"]["name"] + "-rerun")

@@ -32,10 +32,15 @@ def add_parser(subparsers) -> None:
 
 
 def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | None = 1):
-    """Solve for every charge and collect one row per ion (see :func:`twoel.analysis.sweep.series_frame`)."""
-    from twoel.analysis.sweep import series_frame as build
+    """Solve for every charge and collect one row per ion (see :func:`twoel.analysis.sweep.series_frame`).
 
-    return build(charges, keywords, progress=progress, jobs=jobs)
+    ``progress`` shows a bar on an interactive stderr.
+    """
+    from twoel.analysis.sweep import series_frame as build
+    from twoel.cli.progress import counter
+
+    with counter("ions", enabled=progress, unit="ion") as update:
+        return build(charges, keywords, progress=update, jobs=jobs)
 
 
 def run(args: argparse.Namespace) -> int:

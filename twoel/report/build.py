@@ -403,7 +403,7 @@ def _bib_entries(keys) -> str:
 
 
 def build_report(config: dict, out, *, overwrite: bool = False, html: bool = False,
-                 jobs: int | None = 1, progress: bool = False) -> ReportResult:
+                 jobs: int | None = 1, progress=None) -> ReportResult:
     """Compute and write a report folder.
 
     Parameters
@@ -418,14 +418,14 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
         Also write ``index.html``.
     jobs : int
         Worker processes for the solves (1: serial, 0: one per core); the numbers are the same.
-    progress : bool
-        Progress bar on an interactive stderr.
+    progress : callable, optional
+        ``progress(done, total)`` after each solve (see :func:`twoel.analysis.sweep.solve_many`).
 
     Returns
     -------
     ReportResult
     """
-    from twoel.io import atomic_directory, atomic_write_text
+    from twoel.io import atomic_directory, atomic_write_text, dumps_json
     from twoel.analysis.sweep import convergence_frame, series_frame, solve_many
     from twoel.report import plots
 
@@ -546,8 +546,6 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
                              for name in sections},
             "numbers": numbers,
         }
-        from twoel.cli.common import dumps_json
-
         atomic_write_text(folder / "provenance.json", dumps_json(provenance) + "\n")
         files.append("provenance.json")
         atomic_write_text(folder / "index.md", page.markdown())
@@ -598,7 +596,7 @@ def compare_numbers(old: dict, new: dict) -> list[str]:
 
 
 def rebuild_from_provenance(path, out, *, overwrite: bool = False, html: bool = False,
-                            jobs: int | None = 1, progress: bool = False) -> ReportResult:
+                            jobs: int | None = 1, progress=None) -> ReportResult:
     """Re-run the report recorded in a provenance file and compare every number bit for bit.
 
     The returned :class:`ReportResult` has ``reproduction = {"identical": bool, "compared": n,
