@@ -100,20 +100,15 @@ def test_family_basis_contract():
     assert fam.supported_L == (0, 1)
 
 
-def test_p_states_need_the_p_module(monkeypatch):
-    import importlib
-
-    real = importlib.import_module
-
-    def fake(name, *args):
-        if name.endswith("exponential_p"):
-            raise ModuleNotFoundError(name=name)
-        return real(name, *args)
-
-    monkeypatch.setattr(importlib, "import_module", fake)
+def test_family_declares_what_it_supports():
+    """The solver reads the declaration: S states refine and get an error bar, P states do not."""
     fam = get_family("exponential")
-    with pytest.raises(UnsupportedError, match="exponential_p"):
-        fam.parameters(Ion(2), State.parse("2^1P"), 50, {})
+    s, p = State.parse("1^1S"), State.parse("2^1P")
+    assert fam.precision_paths(s) == ("float64", "mixed", "extended")
+    assert fam.precision_paths(p) == ("float64",)
+    assert fam.gives_error_bar(s) and not fam.gives_error_bar(p)
+    with pytest.raises(UnsupportedError):
+        fam.check_state(State.parse("3^1D"))
 
 
 def test_every_box_file_is_read(tmp_path, monkeypatch):

@@ -1,26 +1,9 @@
-r"""Convergence of a variational energy with the basis size, and an error bar for it.
+r"""Convergence of a variational energy with the basis size: a study over nested bases.
 
-For a sequence of nested bases ``N_1 < N_2 < ... < N_K`` the energies ``E_k`` decrease
-(Rayleigh–Ritz).  With the differences ``d_k = E_{k-1} - E_k`` and their ratios
-``q_k = d_k / d_{k-1}`` a geometric tail gives the remaining error of the last energy
-
-.. math:: E_K - E_\infty \approx d_K \frac{q}{1-q},
-
-with ``q`` the *largest* of the last two ratios (the slower one, so the tail is not
-underestimated), kept between 1/3 and 0.8: quasi-random nested bases converge
-sub-geometrically, so an apparently fast ratio is not trusted, and an erratic or near-1 ratio
-is capped (and reported as unreliable).  This is the
-Aitken/Richardson-type estimate customary for explicitly correlated bases (e.g. Drake,
-Springer Handbook of Atomic, Molecular and Optical Physics (2006), ch. 11, where ratios of
-successive differences are tabulated).
-
-Error bars
-----------
-``variational error bar`` (what ``twoel energy`` reports for ``E_K``):
-    ``2·tail + numerical error``; the true ``E_K - E_exact`` is positive and expected within it.
-``extrapolated value``:
-    ``E_K - d_K q/(1-q)`` with the *measured* ratio, and the bar ``tail + numerical error``
-    with the conservative one (the whole correction is the uncertainty).
+:func:`run_study` solves one state for increasing nested sizes and extrapolates with the one
+geometric-tail estimate of :mod:`twoel.solver.error_bar` (:func:`estimate_tail`, re-exported
+here with its constants), which also gives the error bar of a single solve.  Each row of a
+:class:`ConvergenceStudy` has ``step_hartree = E(N_{k-1}) - E(N_k)``.
 """
 
 from __future__ import annotations
@@ -30,93 +13,16 @@ import time
 from dataclasses import dataclass, field
 from typing import Callable, Sequence
 
-import numpy as np
-
 from twoel.errors import InputError
-
-#: largest ratio of successive differences trusted for the geometric tail
-MAX_RATIO = 0.8
-#: smallest ratio used: quasi-random nested bases converge sub-geometrically, so a fast apparent
-#: ratio from a few sizes underestimates the tail (measured for He, H⁻, Li⁺ with N ratio √2)
-MIN_RATIO = 1.0 / 3.0
-#: factor between the tail estimate and the error bar of the variational (upper-bound) value
-BAR_FACTOR = 2.0
-
-
-@dataclass(frozen=True)
-class TailEstimate:
-    """Extrapolation of a decreasing energy sequence (Eh)."""
-
-    tail_hartree: float
-    ratio: float
-    extrapolated_hartree: float
-    variational_bar_hartree: float
-    extrapolated_bar_hartree: float
-    reliable: bool
-    note: str = ""
-
+from twoel.results import Result
+from twoel.solver.error_bar import (BAR_FACTOR, MAX_RATIO, MIN_RATIO, TailEstimate,  # noqa: F401
+                                    error_bar_sizes, estimate_tail, step_ratios, steps)
+from twoel.solver.pipeline import solve
 
 def differences_and_ratios(energies: Sequence[float]) -> tuple[list, list]:
-    """``d_k = E_{k-1} - E_k`` (``None`` for k = 0) and ``q_k = d_k/d_{k-1}`` (``None`` where undefined)."""
-    E = [float(e) for e in energies]
-    diffs: list = [None] + [E[k - 1] - E[k] for k in range(1, len(E))]
-    ratios: list = [None, None]
-    for k in range(2, len(E)):
-        prev = diffs[k - 1]
-        ratios.append(diffs[k] / prev if prev not in (None, 0.0) else None)
-    return diffs, ratios[: len(E)]
-
-
-def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
-                  energies_precise: Sequence[float] | None = None) -> TailEstimate:
-    """Tail of the sequence (see module text).  Needs at least three energies.
-
-    Parameters
-    ----------
-    energies : sequence of float
-        ``E(N_k)`` for increasing nested sizes (Eh).
-    numerical_error : float
-        Arithmetic error of the last energy (Eh), added to the bars.
-    energies_precise : sequence, optional
-        The same energies as higher-precision numbers (``mpmath.mpf`` or decimal strings); the
-        differences are then taken from them (needed beyond ~1e-15 relative).
-    """
-    if len(energies) < 3:
-        raise InputError("a convergence estimate needs at least three basis sizes")
-    if energies_precise is not None:
-        import mpmath
-
-        with mpmath.workdps(60):
-            values = [mpmath.mpf(str(e)) for e in energies_precise]
-            diffs = [float(values[k - 1] - values[k]) for k in range(1, len(values))]
-    else:
-        diffs = [float(energies[k - 1]) - float(energies[k]) for k in range(1, len(energies))]
-    d_last, d_prev = diffs[-1], diffs[-2]
-    floor = max(numerical_error, 0.0)
-    reliable = True
-    note = ""
-    if d_last < -2 * floor - 1e-300 or d_prev < -2 * floor - 1e-300:
-        reliable = False
-        note = "energies do not decrease with N (numerical noise or non-nested bases)"
-    ratios = [diffs[k] / diffs[k - 1] for k in range(1, len(diffs)) if diffs[k - 1] > 0]
-    tail_ratios = ratios[-2:] if len(ratios) >= 2 else ratios
-    q = max(tail_ratios) if tail_ratios else MAX_RATIO
-    if not 0 < q < MAX_RATIO:
-        if not note:
-            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
-        reliable = reliable and 0 < q < 1
-        q = MAX_RATIO
-    d = max(abs(d_last), 0.0)
-    measured_tail = d * q / (1.0 - q) if q > 0 else 0.0  # best guess, for the extrapolation
-    q = max(q, MIN_RATIO)
-    tail = d * q / (1.0 - q)  # conservative, for the bars
-    if d <= 2 * floor:
-        note = note or "differences at the level of the arithmetic error: converged to it"
-        tail = max(tail, floor)
-    last = float(energies[-1])
-    variational_bar = BAR_FACTOR * tail + floor
-    extrapolated_bar = tail + floor
-    return TailEstimate(tail, q, last - measured_tail, variational_bar, extrapolated_bar, reliable, note)
+    """Steps ``d_k = E_{k-1} - E_k`` (``None`` for k = 0) and ``q_k = d_k/d_{k-1}`` (``None`` where undefined)."""
+    d = steps(energies)
+    return [None] + d, ([None, None] + step_ratios(d))[: len(energies)]
 
 
 def trusted_digits(value: float, error_bar: float) -> int:
@@ -126,12 +32,15 @@ def trusted_digits(value: float, error_bar: float) -> int:
     return max(0, int(math.floor(math.log10(abs(value) / error_bar))))
 
 
-@dataclass(frozen=True)
-class ConvergenceStudy:
+@dataclass(frozen=True, repr=False)
+class ConvergenceStudy(Result):
     """Energies of one state for a sequence of basis sizes, with the extrapolation.
 
-    All energies in hartree.  ``differences[k] = E[k-1] - E[k]``, ``ratios[k] =
-    differences[k] / differences[k-1]`` (``None`` where undefined).
+    All energies in hartree.  ``differences[k] = E[k-1] - E[k]`` (the steps between nested
+    bases, also :attr:`steps`), ``ratios[k] = differences[k] / differences[k-1]`` (``None``
+    where undefined).  In :meth:`to_dict` each row carries the step as ``step_hartree``;
+    ``difference_hartree`` is kept there as its documented alias (old name, same value: it is
+    a step, not ``E - E_reference``).
     """
 
     Z: float
@@ -158,13 +67,22 @@ class ConvergenceStudy:
     reference_source: str | None = None
     provenance: dict = field(default_factory=dict)
 
+    SUMMARY = ("ion", "state", "variational_hartree")
+    #: per-row alias of :meth:`to_dict`: old name -> current name
+    ROW_ALIASES = {"difference_hartree": "step_hartree"}
+
+    @property
+    def steps(self) -> tuple:
+        """``E(N_{k-1}) - E(N_k)`` (Eh; ``None`` for the first size)."""
+        return self.differences
+
     def to_dict(self) -> dict:
-        return {
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": self.state, "family": self.family,
             "precision": self.precision,
             "rows": [{"size": n, "energy_hartree": e, "energy_hartree_text": t,
-                      "numerical_error_hartree": u, "difference_hartree": d, "ratio": q,
-                      "seconds": s}
+                      "numerical_error_hartree": u, "difference_hartree": d, "step_hartree": d,
+                      "ratio": q, "seconds": s}
                      for n, e, t, u, d, q, s in zip(self.sizes, self.energies, self.energy_texts,
                                                     self.numerical_errors, self.differences,
                                                     self.ratios, self.seconds)],
@@ -177,7 +95,7 @@ class ConvergenceStudy:
             "reference_source": self.reference_source,
             "true_error_hartree": self.true_error_hartree(),
             "provenance": self.provenance,
-        }
+        })
 
     def true_error_hartree(self) -> float | None:
         """Last energy minus the reference (Eh), from their decimal texts (beyond float64)."""
@@ -221,8 +139,6 @@ def run_study(Z, state="1^1S", sizes: Sequence[int] = (100, 141, 200, 283, 400),
     progress : callable, optional
         ``progress(done, total)`` after each size.
     """
-    from twoel.solver.pipeline import solve
-
     sizes = [int(n) for n in sizes]
     if len(sizes) < 3:
         raise InputError("'sizes' needs at least three basis sizes")
@@ -239,13 +155,8 @@ def run_study(Z, state="1^1S", sizes: Sequence[int] = (100, 141, 200, 283, 400),
     texts = [r.provenance.get("energy_full_text") or repr(r.energy_hartree) for r, _t in results]
     numerical = [float(r.provenance.get("numerical_error_hartree") or 0.0) for r, _t in results]
     estimate = estimate_tail(energies, max(numerical[-1], 0.0), texts)
-    import mpmath
-
-    with mpmath.workdps(60):
-        values = [mpmath.mpf(t) for t in texts]
-        diffs = [None] + [float(values[k - 1] - values[k]) for k in range(1, len(values))]
-    ratios = [None, None] + [diffs[k] / diffs[k - 1] if diffs[k - 1] else None
-                             for k in range(2, len(diffs))]
+    d = steps(energies, texts)
+    diffs, ratios = [None] + d, [None, None] + step_ratios(d)
     last = results[-1][0]
     ref = last.reference
     return ConvergenceStudy(
@@ -266,12 +177,3 @@ def run_study(Z, state="1^1S", sizes: Sequence[int] = (100, 141, 200, 283, 400),
                     "last": {k: last.provenance.get(k) for k in ("version", "family", "precision",
                                                                 "refinement", "boxes")}},
     )
-
-
-def error_bar_sizes(size: int) -> list[int]:
-    """The two smaller sizes used for the error bar of a single ``size`` (``N/2``, ``N/√2``)."""
-    return sorted({max(4, int(round(size / 2))), max(5, int(round(size / math.sqrt(2.0))))} - {size})
-
-
-def finite(x) -> bool:
-    return x is not None and bool(np.isfinite(x))

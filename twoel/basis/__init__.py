@@ -5,9 +5,13 @@
 ``screened``     1s² product with a variational effective charge (optimum ``Z - 5/16``)
 ``open-shell``   two-exponent symmetrized product (Eckart 1930; Chandrasekhar 1944)
 ``hylleraas``    ``r1^i r2^j r12^k exp(-α r1 - β r2)`` with ``i + j + k <= ω`` (Hylleraas 1929)
+``exponential``  ``(1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12)`` (S) and ``z1 exp(...)`` (P),
+                 quasi-random exponents in boxes (Korobov 2000)
 ===============  ==============================================================================
 
-Families are listed by module in :data:`FAMILY_MODULES`; each module defines ``FAMILY``.
+Families are listed by module in :data:`FAMILY_MODULES`; each module defines ``FAMILY``, whose
+:class:`~twoel.basis.base.Support` declaration says which states, precision paths, error bar
+and sizes it offers (:func:`family_for` asks it).
 """
 
 from __future__ import annotations
@@ -15,8 +19,9 @@ from __future__ import annotations
 import importlib
 from functools import lru_cache
 
-from twoel.errors import InputError
-from twoel.basis.base import Basis, Parameter, TrialFamily
+from twoel.errors import InputError, UnsupportedError
+from twoel.basis.base import Basis, Parameter, Support, TrialFamily
+from twoel.system import State
 
 #: modules of twoel.basis that define a ``FAMILY`` object, in display order
 FAMILY_MODULES = ("hydrogenic", "screened", "open_shell", "hylleraas", "exponential")
@@ -26,13 +31,7 @@ FAMILY_MODULES = ("hydrogenic", "screened", "open_shell", "hylleraas", "exponent
 def _registry() -> dict[str, TrialFamily]:
     families: dict[str, TrialFamily] = {}
     for module_name in FAMILY_MODULES:
-        try:
-            module = importlib.import_module(f"{__name__}.{module_name}")
-        except ModuleNotFoundError as exc:
-            if exc.name == f"{__name__}.{module_name}":
-                continue  # family not built yet
-            raise
-        family = module.FAMILY
+        family = importlib.import_module(f"{__name__}.{module_name}").FAMILY
         families[family.name] = family
     return families
 
@@ -55,4 +54,16 @@ def get_family(name: str | TrialFamily) -> TrialFamily:
     return families[key]
 
 
-__all__ = ["Basis", "Parameter", "TrialFamily", "FAMILY_MODULES", "family_names", "get_family"]
+def family_for(state: State) -> TrialFamily:
+    """The first registered family (in :data:`FAMILY_MODULES` order, after ``hylleraas``) whose
+    declaration covers ``state``: ``hylleraas`` for S states, ``exponential`` for P states."""
+    families = _registry()
+    order = ["hylleraas"] + [name for name in families if name != "hylleraas"]
+    for name in order:
+        if name in families and families[name].supports().covers(state):
+            return families[name]
+    raise UnsupportedError(f"no trial family represents {state.label}")
+
+
+__all__ = ["Basis", "Parameter", "Support", "TrialFamily", "FAMILY_MODULES", "family_for",
+           "family_names", "get_family"]

@@ -8,8 +8,8 @@ so a new family touches its own module (and, if needed, its integrals) and the r
 from __future__ import annotations
 
 from abc import ABC, abstractmethod
-from dataclasses import dataclass
-from typing import Any, Protocol
+from dataclasses import dataclass, field
+from typing import Any, Mapping, Protocol
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import SystemMatrices
@@ -42,6 +42,54 @@ class Parameter:
     kind: str = "exponent"
 
 
+#: precision paths a family can declare: plain float64 solve, the cheap mixed-precision
+#: refinement that ``precision="float64"`` adds (:func:`twoel.solver.refine.mixed_refine`), and
+#: ``precision="extended"`` (:func:`twoel.solver.refine.extended_refine`)
+PRECISION_PATHS = ("float64", "mixed", "extended")
+
+
+@dataclass(frozen=True)
+class Support:
+    """What a family declares it can do; the solver asks this, never the family's name.
+
+    Attributes
+    ----------
+    L_values : tuple of int
+        Total angular momenta the family represents.
+    only_states : tuple of str, optional
+        If set, the only states (canonical labels) the family describes.
+    precision : mapping of int to tuple of str
+        Precision paths (:data:`PRECISION_PATHS`) per ``L``; an ``L`` not listed has
+        ``("float64",)``.  ``"mixed"`` means the default solve is refined beyond float64.
+    error_bar_L : tuple of int
+        ``L`` values for which the family gives a basis-truncation error bar (from nested
+        smaller bases, :mod:`twoel.solver.error_bar`).
+    sizes : mapping of int to int
+        Size used per ``L`` when twoel chooses the size for a state (:meth:`TrialFamily.size_for`);
+        an ``L`` not listed uses :attr:`TrialFamily.default_size`.
+    tuning_size : int, optional
+        Basis size on which ``optimize=True`` tunes the parameters (``None``: the solve size).
+    tuning_max_size : int, optional
+        Largest tuning size.
+    """
+
+    L_values: tuple[int, ...] = (0,)
+    only_states: tuple[str, ...] | None = None
+    precision: Mapping[int, tuple[str, ...]] = field(default_factory=dict)
+    error_bar_L: tuple[int, ...] = ()
+    sizes: Mapping[int, int] = field(default_factory=dict)
+    tuning_size: int | None = None
+    tuning_max_size: int | None = None
+
+    def covers(self, state: State) -> bool:
+        """Whether ``state`` is among the states declared here."""
+        return state.L in self.L_values and (self.only_states is None
+                                             or state.label in self.only_states)
+
+    def precision_paths(self, state: State) -> tuple[str, ...]:
+        return tuple(self.precision.get(state.L, ("float64",)))
+
+
 class TrialFamily(ABC):
     """Base class of the trial-function families (see :mod:`twoel.basis`)."""
 
@@ -62,6 +110,37 @@ class TrialFamily(ABC):
     supported_L: tuple[int, ...] = (0,)
     #: if set, the only states (canonical labels) the family describes
     only_states: tuple[str, ...] | None = None
+    #: the declaration the solver reads; ``None`` derives one from ``supported_L``/``only_states``
+    support: Support | None = None
+
+    def supports(self) -> Support:
+        """The family's :class:`Support` declaration."""
+        if self.support is not None:
+            return self.support
+        return Support(L_values=tuple(self.supported_L), only_states=self.only_states)
+
+    def precision_paths(self, state: State) -> tuple[str, ...]:
+        """Precision paths (:data:`PRECISION_PATHS`) the family offers for ``state``."""
+        return self.supports().precision_paths(state)
+
+    def gives_error_bar(self, state: State) -> bool:
+        """Whether the family gives a basis-truncation error bar for ``state``."""
+        return state.L in self.supports().error_bar_L
+
+    def size_for(self, ion: Ion, state: State) -> int | None:
+        """Size used for ``state`` when twoel chooses it (:attr:`Support.sizes`, else the default)."""
+        return self.supports().sizes.get(state.L, self.default_size)
+
+    def tuning_size(self, ion: Ion, state: State, size: int | None) -> int | None:
+        """The basis size on which ``optimize=True`` tunes the nonlinear parameters."""
+        support = self.supports()
+        if size is None or support.tuning_size is None:
+            return size
+        return min(size, support.tuning_size, support.tuning_max_size or size)
+
+    def provenance(self, ion: Ion, state: State) -> dict | None:
+        """Where the family's starting parameters come from (JSON-ready), or ``None``."""
+        return None
 
     def resolve_size(self, size: int | None) -> int | None:
         """Validate ``size`` (``None`` selects the default; families without a size ignore it)."""
@@ -87,12 +166,13 @@ class TrialFamily(ABC):
 
     def check_state(self, state: State) -> None:
         """Raise :class:`UnsupportedError` if the family cannot represent ``state``."""
-        if state.L not in self.supported_L:
+        support = self.supports()
+        if state.L not in support.L_values:
             raise UnsupportedError(f"family {self.name!r} represents only "
-                                   f"{'/'.join('SPDF'[L] for L in self.supported_L)} states, "
+                                   f"{'/'.join('SPDF'[L] for L in support.L_values)} states, "
                                    f"not {state.label}")
-        if self.only_states is not None and state.label not in self.only_states:
-            raise UnsupportedError(f"family {self.name!r} describes only {', '.join(self.only_states)}, "
+        if support.only_states is not None and state.label not in support.only_states:
+            raise UnsupportedError(f"family {self.name!r} describes only {', '.join(support.only_states)}, "
                                    f"not {state.label}")
 
     @abstractmethod

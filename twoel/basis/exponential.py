@@ -19,12 +19,16 @@ give functions of tiny norm whose normalized form is a derivative-like combinati
 the conditioning ("collapse").  For triplets each term is ordered ``α > β`` and a quasi-random
 point with ``α - β < 0.05 (α + β)`` is skipped (the sequence moves on to the next index).
 
-P states (``L = 1``) are served by :mod:`twoel.basis.exponential_p` when that module is present.
+P states (``L = 1``, odd parity, ``n¹P`` and ``n³P``): functions
+``z1 e^{-α_i r1 - β_i r2 - γ_i r12} ± (1 <-> 2)`` (:class:`twoel.basis.p_basis.PBasis`, ``α`` of
+the ``p`` electron) with exponents from the same boxes and sequence, no triplet guard.  Excited
+S states are the ``n``-th root of the S block (Hylleraas–Undheim–MacDonald), the ``n``-th P
+root is ``state.root = n - 2``.  The boxes of every state come from
+:func:`twoel.basis.exponential_boxes.box_set_for` (one loader, one fallback rule).
 """
 
 from __future__ import annotations
 
-import importlib
 from functools import lru_cache
 from math import isqrt
 
@@ -33,8 +37,9 @@ import numpy as np
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.system import Ion, State
-from twoel.basis.base import Parameter, TrialFamily
+from twoel.basis.base import Parameter, Support, TrialFamily
 from twoel.basis import exponential_boxes as stored
+from twoel.basis.p_basis import PBasis
 
 #: primes whose square roots drive the quasi-random sequences of α, β, γ (Korobov 2000)
 PRIMES = (2, 3, 5)
@@ -130,13 +135,19 @@ def _dealt_counts(fractions: tuple, starts: tuple, size: int) -> tuple:
     return tuple(counts)
 
 
-def _p_module():
-    try:
-        return importlib.import_module(f"{__package__}.exponential_p")
-    except ModuleNotFoundError as exc:
-        if exc.name == f"{__package__}.exponential_p":
-            raise UnsupportedError("P states need twoel.basis.exponential_p") from None
-        raise
+def basis_from_boxes(boxes, state: State, size: int):
+    """The S (ground or excited) or P exponential basis of ``size`` terms drawn from ``boxes``.
+
+    S: a zero-power :class:`CorrelatedBasis` (closed-form matrices, triplets guarded as in the
+    module text).  P: a :class:`PBasis` (pair-evaluator matrices).
+    """
+    if state.L == 0:
+        exponents = box_exponents(boxes, size, state.exchange_sign)
+        return CorrelatedBasis(np.zeros_like(exponents, dtype=int), exponents,
+                               sign=state.exchange_sign)
+    if state.L == 1:
+        return PBasis(box_exponents(boxes, size, 1), sign=state.exchange_sign)
+    raise UnsupportedError(f"no exponential basis for L = {state.L} ({state.label})")
 
 
 class ExponentialFamily(TrialFamily):
@@ -151,38 +162,36 @@ class ExponentialFamily(TrialFamily):
     optimize_by_default = False
     option_names = ()
     supported_L = (0, 1)
-    #: basis size on which ``--optimize`` tunes the box edges when the stored set gives none
-    optimization_default_size = 120
-    #: largest size ``--optimize`` tunes at: the float64 energy it minimizes stops seeing the
-    #: basis near 1e-10 Eh anyway, and each evaluation costs O(N³)
-    optimization_max_size = 400
+    #: S states: float64 with mixed refinement or extended precision, and an error bar; P
+    #: states: float64.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
+    #: ``--optimize`` tunes S boxes at the stored set's size (else 120), at most 400 (the float64
+    #: energy it minimizes stops seeing the basis near 1e-10 Eh, and each evaluation is O(N³))
+    support = Support(L_values=(0, 1), precision={0: ("float64", "mixed", "extended")},
+                      error_bar_L=(0,), sizes={0: 600, 1: 600}, tuning_size=120,
+                      tuning_max_size=400)
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:
-        if state.L == 1:
-            return _p_module().parameters(ion, state, size, options)
-        box_set = stored.box_set_for(ion, state)
-        return box_set.parameters()
+        return stored.box_set_for(ion, state).parameters()
 
     def build(self, ion: Ion, state: State, size, values, options):
-        if state.L == 1:
-            return _p_module().build(ion, state, size, values, options)
-        box_set = stored.box_set_for(ion, state).with_values(values)
-        exponents = box_exponents(box_set.boxes, size, state.exchange_sign)
-        return CorrelatedBasis(np.zeros_like(exponents, dtype=int), exponents,
-                               sign=state.exchange_sign)
+        if size is None or isinstance(size, bool) or not isinstance(size, int) or size < state.root + 1:
+            raise InputError(f"the exponential basis needs an integer size >= {state.root + 1}, got {size!r}")
+        box_set = stored.box_set_for(ion, state).with_values(values or {})
+        return basis_from_boxes(box_set.boxes, state, size)
 
-    def optimization_size(self, ion: Ion, state: State, size: int) -> int:
-        """The (smaller) basis size on which ``optimize=True`` tunes the box edges."""
-        if state.L == 1:
+    def size_for(self, ion: Ion, state: State) -> int | None:
+        """The stored set's ``recommended_size``, else 600 functions."""
+        return stored.recommended_size(ion, state) or super().size_for(ion, state)
+
+    def tuning_size(self, ion: Ion, state: State, size: int | None) -> int | None:
+        """S states: the stored set's ``optimized_size`` (else 120), at most 400; P: ``size``."""
+        if state.L != 0 or size is None:
             return size
-        box_set = stored.box_set_for(ion, state)
-        target = box_set.optimized_size or self.optimization_default_size
-        return min(size, target, self.optimization_max_size)
+        target = stored.box_set_for(ion, state).optimized_size or self.support.tuning_size
+        return min(size, target, self.support.tuning_max_size)
 
     def provenance(self, ion: Ion, state: State) -> dict:
         """Where the box edges of ``(ion, state)`` come from (JSON-ready)."""
-        if state.L == 1:
-            return {"boxes": "twoel.basis.exponential_p"}
         return stored.box_set_for(ion, state).provenance()
 
 

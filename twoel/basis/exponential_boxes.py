@@ -1,18 +1,30 @@
-"""Box edges of the exponential family: data classes, the shipped tables and their loader.
+"""Box edges of the exponential family: the one schema, loader and fallback rule.
 
-Every file ``data/exponential_boxes*.json`` is read (one schema, described in DEVELOPERS.md)::
+Every file ``data/exponential_boxes*.json`` is read by one loader (:func:`stored_sets`; schema
+described in DEVELOPERS.md)::
 
     {"schema": "twoel-exponential-boxes/1",
      "sets": [{"Z": 2, "state": "1^1S",
                "boxes": [{"fraction": 0.4, "alpha": [lo, hi], "beta": [lo, hi],
                           "gamma": [lo, hi]}, ...],
                "optimized_size": 150, "energy_hartree": -2.9037..., "method": "...",
-               "date": "YYYY-MM-DD"}, ...]}
+               "date": "YYYY-MM-DD", "recommended_size": 600}, ...]}
 
-When two files give the same ``(Z, state)``, the set optimized on the larger basis wins (ties:
-the first file in name order).  For a ``(Z, state)`` without a stored set the nearest stored
-``Z`` of the same state is used with every edge scaled by ``Z / Z_stored`` (exponents of
-hydrogen-like orbitals scale with Z), and failing that a generic guess; the provenance says so.
+Ground, excited S and P states share the schema, the box type and the edge names
+``box<k>_alpha_min`` ... (``α`` of a P state belongs to the ``p`` electron).  When two files
+give the same ``(Z, state)``, the set optimized on the larger basis wins (ties: the first file
+in name order).
+
+Fallback rule for a ``(Z, state)`` without a stored set (:func:`box_set_for`), the same for
+every state:
+
+1. the stored set of the same state at the nearest stored ``Z`` (ties: the smaller ``Z``),
+   with every edge scaled by ``Z / Z_stored`` (exponents of hydrogen-like orbitals scale with
+   Z); origin ``"scaled from Z = ..."``;
+2. else the hydrogenic guess :func:`generic_boxes` (origin ``"generic"``).
+
+The provenance of a solve records which applied.  Writing box files is a developer task
+(:mod:`twoel.tools.tune_boxes`); nothing here writes.
 """
 
 from __future__ import annotations
@@ -189,23 +201,32 @@ def stored_sets() -> dict[tuple[float, str], BoxSet]:
 
 
 def generic_boxes(ion: Ion, state: State) -> BoxSet:
-    """A starting guess scaled with Z (no optimization behind it)."""
+    """The hydrogenic starting guess (no optimization behind it), scaled with ``Z``.
+
+    Ground state: both electrons ``1s``-like, exponents ``~Z``.  Other states: an inner ``1s``
+    electron ``~Z`` and an outer ``nl`` electron ``~(Z - 1)/n`` (screened by the inner one); for
+    P states ``α`` is the exponent of the ``p`` electron.
+    """
     Z = ion.Z
-    if state.n == 1:
+    if state.L == 0 and state.n == 1:
         boxes = (Box((0.3 * Z, 1.3 * Z), (0.3 * Z, 1.3 * Z), (0.05 * Z, 0.6 * Z), 0.5),
                  Box((0.5 * Z, 3.0 * Z), (0.5 * Z, 3.0 * Z), (0.1 * Z, 1.5 * Z), 0.3),
                  Box((1.0 * Z, 10.0 * Z), (0.2 * Z, 4.0 * Z), (0.01 * Z, 2.0 * Z), 0.2))
-    else:
+    elif state.L == 0:
         outer = max(Z - 1.0, 0.2) / state.n
         boxes = (Box((0.7 * Z, 1.5 * Z), (0.3 * outer, 1.5 * outer), (0.01, 0.3 * outer), 0.5),
                  Box((0.5 * Z, 4.0 * Z), (0.1 * outer, 2.0 * outer), (0.02, 1.0 * outer), 0.3),
                  Box((1.0 * Z, 10.0 * Z), (0.3 * outer, 3.0 * Z), (0.01, 2.0 * Z), 0.2))
+    else:
+        outer = max(Z - 1.0, 0.1) / state.n
+        boxes = (Box((0.3 * outer, 2.0 * outer), (0.8 * Z, 1.3 * Z), (0.0, 0.3), 0.5),
+                 Box((0.5 * outer, 3.0 * outer), (0.5 * Z, 2.0 * Z), (0.0, 0.8), 0.5))
     return BoxSet(Z, state.label, boxes, None, None, "generic guess scaled with Z (not optimized)",
                   "", "generic")
 
 
 def box_set_for(ion: Ion, state: State) -> BoxSet:
-    """The stored set for ``(Z, state)``, else a scaled neighbour, else :func:`generic_boxes`."""
+    """The stored set for ``(Z, state)``, else the fallback rule of the module text."""
     table = stored_sets()
     key = (ion.Z, state.label)
     if key in table:
@@ -218,3 +239,10 @@ def box_set_for(ion: Ion, state: State) -> BoxSet:
         return replace(nearest, Z=ion.Z, boxes=boxes, origin=f"scaled from Z = {nearest.Z:g}",
                        energy_hartree=None)
     return generic_boxes(ion, state)
+
+
+def recommended_size(ion: Ion, state: State) -> int | None:
+    """The ``recommended_size`` stored with the set of exactly ``(Z, state)``, if any."""
+    entry = stored_sets().get((ion.Z, state.label))
+    value = None if entry is None else entry.extra.get("recommended_size")
+    return int(value) if value else None

@@ -26,7 +26,7 @@ import numpy as np
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.system import Ion, State
-from twoel.basis.base import Parameter, TrialFamily
+from twoel.basis.base import Parameter, Support, TrialFamily
 
 
 def omega_terms(omega: int, one_exponent: bool, sign: int) -> list[tuple[int, int, int]]:
@@ -93,6 +93,8 @@ class HylleraasFamily(TrialFamily):
     min_size = 0
     max_size = 16
     option_names = ("exponents", "terms", "coordinates")
+    #: S states in float64; ω = 8 when twoel chooses the size for a state
+    support = Support(L_values=(0,), sizes={0: 8})
 
     def _options(self, ion: Ion, state: State, options: dict) -> tuple[int, str, list | None]:
         coordinates = options.get("coordinates", "r")

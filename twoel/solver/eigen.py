@@ -68,6 +68,64 @@ def _check(name: str, matrix: np.ndarray) -> np.ndarray:
     return 0.5 * (matrix + matrix.T)
 
 
+def canonical_orthogonalizer(overlap, drop_threshold: float = DEFAULT_DROP_THRESHOLD,
+                             what: str = "overlap"):
+    """Canonical orthogonalization ``X`` with ``X^T S X = 1`` (Löwdin, Adv. Quantum Chem. 5, 185 (1970)).
+
+    The overlap is diagonally scaled (``S_ii = 1``) and diagonalized; directions whose relative
+    eigenvalue is below ``drop_threshold`` are removed.
+
+    Parameters
+    ----------
+    overlap : ndarray, shape (N, N)
+        Symmetric overlap with a positive diagonal.
+    drop_threshold : float
+        Relative eigenvalue of the scaled overlap below which a direction is dropped.
+    what : str
+        Name of the matrix in error messages.
+
+    Returns
+    -------
+    X : ndarray, shape (N, M)
+        Columns span the kept directions in the original (unscaled) basis.
+    n_dropped : int
+        ``N - M``.
+    condition : float
+        Largest over smallest eigenvalue of the scaled overlap (``inf`` if not positive).
+
+    Raises
+    ------
+    LinearDependenceError
+        A clearly negative eigenvalue (``< -1e-10`` relative) or no surviving direction.
+    """
+    d, s, U = _scaled_eigen(np.asarray(overlap, dtype=float), what)
+    keep, n_dropped, condition = _kept(s, drop_threshold)
+    X = U[:, keep] / np.sqrt(s[keep])[None, :] * d[:, None]
+    return X, n_dropped, condition
+
+
+def _scaled_eigen(S: np.ndarray, what: str):
+    diag = np.diag(S)
+    if np.any(diag <= 0):
+        raise LinearDependenceError(f"{what} has a non-positive diagonal element: a basis function "
+                                    "vanishes identically (e.g. a triplet term with α = β)")
+    d = 1.0 / np.sqrt(diag)
+    s, U = np.linalg.eigh(S * d[:, None] * d[None, :])
+    if s[0] < -1e-10 * s[-1]:
+        raise LinearDependenceError(
+            f"{what} matrix is not positive definite (smallest relative eigenvalue {s[0] / s[-1]:.2e}); "
+            "the integrals lost precision or the basis is linearly dependent")
+    return d, s, U
+
+
+def _kept(s: np.ndarray, drop_threshold: float):
+    keep = s > drop_threshold * s[-1]
+    if not np.any(keep):
+        raise LinearDependenceError("no basis direction survives canonical orthogonalization")
+    condition = float(s[-1] / s[0]) if s[0] > 0 else float("inf")
+    return keep, int(np.count_nonzero(~keep)), condition
+
+
 def solve_generalized(hamiltonian, overlap, drop_threshold: float = DEFAULT_DROP_THRESHOLD,
                       force_canonical: bool = False) -> EigenSolution:
     """Solve ``H c = E S c`` for all roots.
@@ -90,24 +148,10 @@ def solve_generalized(hamiltonian, overlap, drop_threshold: float = DEFAULT_DROP
     S = _check("overlap", overlap)
     if H.shape != S.shape:
         raise InputError(f"hamiltonian {H.shape} and overlap {S.shape} differ in shape")
-    diag = np.diag(S)
-    if np.any(diag <= 0):
-        raise LinearDependenceError("overlap has a non-positive diagonal element: a basis function "
-                                    "vanishes identically (e.g. a triplet term with α = β)")
-    d = 1.0 / np.sqrt(diag)
+    d, s, U = _scaled_eigen(S, "overlap")
     Ss = S * d[:, None] * d[None, :]
     Hs = H * d[:, None] * d[None, :]
-    s, U = np.linalg.eigh(Ss)
-    s_max = s[-1]
-    if s[0] < -1e-10 * s_max:
-        raise LinearDependenceError(
-            f"overlap matrix is not positive definite (smallest relative eigenvalue {s[0] / s_max:.2e}); "
-            "the integrals lost precision or the basis is linearly dependent")
-    condition = float(s_max / s[0]) if s[0] > 0 else float("inf")
-    keep = s > drop_threshold * s_max
-    n_dropped = int(np.count_nonzero(~keep))
-    if not np.any(keep):
-        raise LinearDependenceError("no basis direction survives canonical orthogonalization")
+    keep, n_dropped, condition = _kept(s, drop_threshold)
     if n_dropped == 0 and not force_canonical:
         try:
             values, vectors = scipy.linalg.eigh(Hs, Ss)

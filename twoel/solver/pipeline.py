@@ -1,30 +1,36 @@
-"""Orchestration: ``solve(Z, state, family, size)`` -> :class:`EnergyResult` (no I/O here).
+"""The front door: ``solve(Z, state, family, size)`` -> :class:`EnergyResult` (no I/O here).
 
-The steps are: validate the ion, state and family; pick starting nonlinear parameters; optimize
-them (if the family asks for it and the user did not give fixed values); build the matrices;
-solve the generalized eigenproblem; compute diagnostics (virial ratio, conditioning); attach the
-published reference and the provenance.
+The steps, each a function below: :func:`_validate` (ion, state, family, size, options,
+parameters; the family is chosen from its :class:`~twoel.basis.base.Support` declaration when
+the default cannot do the state), :func:`_optimize` (if the family asks for it and the user
+gave no fixed values) with :func:`_virial_rescale`, :func:`_evaluate` (build the matrices and
+solve the generalized eigenproblem), :func:`_refine_step` (beyond float64, where the family
+declares the ``"mixed"``/``"extended"`` paths), the error bar
+(:func:`twoel.solver.error_bar.nested_error_bar`) and :func:`_assemble` (diagnostics, the
+published reference, the provenance).  The solver asks the family what it supports; it never
+tests a family's name.
 """
 
 from __future__ import annotations
 
 import time
 import warnings
-from dataclasses import replace
+from dataclasses import dataclass, replace
 from typing import Callable
 
 import numpy as np
 
 from twoel import constants
 from twoel._version import __version__
-from twoel.basis import get_family
-from twoel.basis.base import TrialFamily
+from twoel.basis import family_for, get_family
+from twoel.basis.base import Parameter, TrialFamily
 from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.solver.optimize import minimize_energy
-from twoel.solver.refine import (check_precision, extended_refine, mixed_refine, starting_condition_digits,
-                        truncate_text)
+from twoel.solver.error_bar import nested_error_bar
+from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
+                                 starting_condition_digits, truncate_text)
 from twoel.reference import lookup
 from twoel.results import EnergyResult, Wavefunction
 from twoel.system import Ion, State
@@ -55,25 +61,201 @@ def _expectations(matrices, eig: EigenSolution, root: int, Z: float) -> tuple[fl
     return kinetic, potential
 
 
-def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas",
+#: the family used when the caller names none and it can represent the state (as before)
+DEFAULT_FAMILY = "hylleraas"
+
+
+@dataclass(frozen=True)
+class _Plan:
+    """The validated inputs of one solve."""
+
+    ion: Ion
+    state: State
+    fam: TrialFamily
+    size: int | None
+    options: dict
+    params: list
+    do_optimize: bool
+    precision: str
+    digits: int | None
+    drop_threshold: float
+
+    def evaluate(self, values: dict, size="same"):
+        return _evaluate(self.fam, self.ion, self.state, self.size if size == "same" else size,
+                         values, self.options, self.drop_threshold)
+
+
+@dataclass
+class _Solved:
+    """A float64 solve, and its refinement when there is one."""
+
+    basis: object
+    matrices: object
+    eig: EigenSolution
+    values: dict
+    energy: float
+    kinetic: float
+    potential: float
+    refined: object = None
+
+
+def choose_family(state: State, family=None, size: int | None = None, ion: Ion | None = None):
+    """The family and size of a solve (the front door's choice).
+
+    ``family`` given: that family, ``size`` as given (``None``: its default size).  ``family``
+    ``None``: :data:`DEFAULT_FAMILY` with its default size when it can represent ``state``
+    (unchanged behaviour), else the first family whose declaration covers the state
+    (:func:`twoel.basis.family_for`) with the size it gives for the state
+    (:meth:`~twoel.basis.base.TrialFamily.size_for`), unless ``size`` is given.
+    """
+    if family is not None:
+        return get_family(family), size
+    default = get_family(DEFAULT_FAMILY)
+    if default.supports().covers(state):
+        return default, size
+    fam = family_for(state)
+    return fam, fam.size_for(ion or Ion(2), state) if size is None else size
+
+
+def _validate(Z, state, family, size, parameters, optimize, options, precision, digits,
+              drop_threshold) -> _Plan:
+    ion = Z if isinstance(Z, Ion) else Ion.parse(Z)
+    state = State.parse(state)
+    fam, size = choose_family(state, family, size, ion)
+    digit_target = check_precision(precision, digits)
+    size = fam.resolve_size(size)
+    if precision == "extended" and size is not None and size > MAX_EXTENDED_SIZE:
+        raise ResourceError(f"extended precision is limited to {MAX_EXTENDED_SIZE} terms "
+                            f"(got {size}); use a smaller size or the default precision")
+    options = fam.check_options(options)
+    fam.check_state(state)
+    if precision == "extended" and "extended" not in fam.precision_paths(state):
+        raise UnsupportedError("precision='extended' needs the exponential family (S states)")
+    params = _starting_parameters(fam, ion, state, size, options, parameters)
+    do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
+    return _Plan(ion, state, fam, size, options, params, bool(do_optimize and params), precision,
+                 digit_target, drop_threshold)
+
+
+def _starting_parameters(fam, ion, state, size, options, given) -> list[Parameter]:
+    params = fam.parameters(ion, state, size, options)
+    names = [p.name for p in params]
+    if given is None:
+        return params
+    unknown = sorted(set(given) - set(names))
+    if unknown:
+        raise InputError(f"unknown parameter(s) {', '.join(unknown)} for family {fam.name!r} "
+                         f"(parameters: {', '.join(names) or 'none'})")
+    for name, value in given.items():
+        if not np.isfinite(value) or value <= 0:
+            raise InputError(f"parameter {name!r} must be a positive exponent (bohr⁻¹), got {value!r}")
+    return [replace(p, initial=float(given.get(p.name, p.initial))) for p in params]
+
+
+def _optimize(plan: _Plan, progress) -> tuple[dict, dict | None]:
+    """Optimized values and the optimizer record (families tune on their tuning size)."""
+    values = {p.name: p.initial for p in plan.params}
+    if not plan.do_optimize:
+        return values, None
+    tune_size = plan.fam.tuning_size(plan.ion, plan.state, plan.size)
+
+    def energy(v):
+        return plan.evaluate(v, tune_size)[2].values[plan.state.root]
+
+    values, _best, opt = minimize_energy(energy, plan.params, progress=progress)
+    record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
+              "message": opt.message, "initial": opt.initial, "size": tune_size}
+    return values, record
+
+
+def _solve_at(plan: _Plan, values: dict) -> _Solved:
+    basis, matrices, eig = plan.evaluate(values)
+    kinetic, potential = _expectations(matrices, eig, plan.state.root, plan.ion.Z)
+    return _Solved(basis, matrices, eig, dict(values), float(eig.values[plan.state.root]),
+                   kinetic, potential)
+
+
+def _virial_rescale(plan: _Plan, solved: _Solved, record: dict | None) -> _Solved:
+    """Apply ``exponents -> λ·exponents``, ``λ = -<V>/(2<T>)``, after an optimization if it helps."""
+    if not plan.do_optimize or not all(p.kind == "exponent" for p in plan.params) \
+            or solved.kinetic <= 0:
+        return solved
+    scale = -solved.potential / (2.0 * solved.kinetic)
+    try:
+        scaled = _solve_at(plan, {k: v * scale for k, v in solved.values.items()})
+    except Exception:  # a rescaled point that fails is simply not taken
+        return solved
+    # accept unless it raises the energy beyond rounding: the optimum obeys the virial theorem
+    if scaled.energy <= solved.energy + 1e-14 * abs(solved.energy):
+        record["virial_rescale"] = scale
+        return scaled
+    return solved
+
+
+def _refine_step(plan: _Plan, solved: _Solved, record: dict | None, stage) -> tuple[_Solved, tuple | None]:
+    """Refine beyond float64 where the family declares it; keep the starting edges if lower."""
+    if "mixed" not in plan.fam.precision_paths(plan.state) or not _zero_power(solved.basis):
+        return solved, None
+    solved.refined = _refine(solved.basis, plan.ion, plan.state, solved.eig, plan.precision,
+                             plan.digits, stage=stage)
+    solved.energy = solved.refined.energy_hartree
+    if record is None:
+        return solved, None
+    # the optimizer minimized the float64 energy, blind below ~1e-10 Eh: if the starting
+    # (stored) edges give the lower refined energy, the variational principle prefers them
+    stage(f"comparing with the starting box edges, N = {plan.size}")
+    start = _solve_at(plan, {p.name: p.initial for p in plan.params})
+    start.refined = _refine(start.basis, plan.ion, plan.state, start.eig, plan.precision, plan.digits)
+    if start.refined.energy_hartree < solved.refined.energy_hartree:
+        kept = (solved.refined.energy_hartree, start.refined.energy_hartree)
+        start.energy = start.refined.energy_hartree
+        record["kept_start"] = True
+        return start, kept
+    return solved, None
+
+
+def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | None:
+    """Truncation error bar from nested smaller bases, where the family declares one."""
+    if solved.refined is None or not plan.fam.gives_error_bar(plan.state) \
+            or (error_bar is not None and not error_bar):
+        return None
+
+    def refined_energy(n: int):
+        # the smaller bases only feed differences: the mixed refinement suffices unless its
+        # arithmetic bound is coarser than the digit target, then they are refined like size
+        stage(f"error bar: smaller basis N = {n}")
+        b, _m, e = plan.evaluate(solved.values, n)
+        aux = _refine(b, plan.ion, plan.state, e, "float64", None, stage=stage)
+        if plan.precision == "extended" and aux.numerical_error_hartree > _target_error(aux, plan.digits):
+            aux = _refine(b, plan.ion, plan.state, e, "extended", plan.digits, start=aux, stage=stage)
+        return aux
+
+    return nested_error_bar(refined_energy, plan.size, solved.refined)
+
+
+def solve(Z, state: str | State = "1^1S", family: str | TrialFamily | None = None,
           size: int | None = None, *, parameters: dict | None = None, optimize: bool | None = None,
           options: dict | None = None, precision: str = "float64",
           drop_threshold: float = DEFAULT_DROP_THRESHOLD,
           progress: Callable[[int, float], None] | None = None, digits: int | None = None,
           error_bar: bool | None = None,
           on_stage: Callable[[str], None] | None = None) -> EnergyResult:
-    """Variational energy of one state of a two-electron ion.
+    """Variational energy of one state of a two-electron ion (the one front door).
 
     Parameters
     ----------
     Z : float or str
         Nuclear charge (``2``, ``"2"``, ``"He"``); any ``Z > 0``.
     state : str or State
-        Term symbol, e.g. ``"1^1S"`` (default), ``"2^3S"``.
-    family : str
-        Trial-function family (see :func:`twoel.basis.family_names`).
+        Term symbol, e.g. ``"1^1S"`` (default), ``"2^3S"``, ``"2^3P"``.
+    family : str or TrialFamily, optional
+        Trial-function family (see :func:`twoel.basis.family_names`).  Default: ``hylleraas``
+        for the states it represents (every S state), else the family whose declaration covers
+        the state (``exponential`` for P states) at the size it gives for the state
+        (:func:`choose_family`).
     size : int, optional
-        The family's size parameter (``ω`` for ``hylleraas``); ignored by families without one.
+        The family's size parameter (``ω`` for ``hylleraas``, ``N`` for ``exponential``);
+        ignored by families without one.
     parameters : dict, optional
         Nonlinear parameters (bohr⁻¹).  Given values are used as they are unless ``optimize=True``.
     optimize : bool, optional
@@ -82,10 +264,11 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     options : dict, optional
         Family-specific options (e.g. ``{"exponents": 2}`` for ``hylleraas``).
     precision : str
-        ``"float64"`` (default) or ``"extended"`` (zero-power exponential bases only: exact
-        fixed-point matrices and arb inverse iteration, :mod:`twoel.solver.refine`).  For the
-        exponential family ``"float64"`` includes a cheap mixed-precision refinement
-        (double-double matrices, one 128-bit inverse-iteration step).
+        ``"float64"`` (default) or ``"extended"`` (families that declare the path: exponential
+        S states; exact fixed-point matrices and arb inverse iteration,
+        :mod:`twoel.solver.refine`).  Where a family declares the ``"mixed"`` path,
+        ``"float64"`` includes a cheap mixed-precision refinement (double-double matrices, one
+        128-bit inverse-iteration step).
     drop_threshold : float
         Relative overlap eigenvalue below which basis directions are dropped.
     progress : callable, optional
@@ -94,8 +277,8 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         Significant digits aimed at by ``precision="extended"`` (default 20).
     error_bar : bool, optional
         Estimate the basis-truncation error from two smaller nested bases (``N/2``, ``N/√2``;
-        :mod:`twoel.analysis.convergence`) and fill ``error_bar_hartree``.  Default: on for the
-        exponential family, off otherwise.
+        :mod:`twoel.solver.error_bar`) and fill ``error_bar_hartree``.  Default: on where the
+        family declares an error bar (exponential S states), off otherwise.
     on_stage : callable, optional
         ``on_stage(text)`` is called as each long step begins (float64 solve, refinements, the
         smaller bases of the error bar), so a caller can show where a minutes-long run is.
@@ -105,87 +288,23 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
     EnergyResult
     """
     started = time.perf_counter()
-    ion = Z if isinstance(Z, Ion) else Ion.parse(Z)
-    state = State.parse(state)
-    fam = get_family(family)
-    digit_target = check_precision(precision, digits)
-    size = fam.resolve_size(size)
-    if precision == "extended" and size is not None and size > MAX_EXTENDED_SIZE:
-        raise ResourceError(f"extended precision is limited to {MAX_EXTENDED_SIZE} terms "
-                            f"(got {size}); use a smaller size or the default precision")
-    options = fam.check_options(options)
-    fam.check_state(state)
-    params = fam.parameters(ion, state, size, options)
-    names = [p.name for p in params]
-    if parameters is not None:
-        unknown = sorted(set(parameters) - set(names))
-        if unknown:
-            raise InputError(f"unknown parameter(s) {', '.join(unknown)} for family {fam.name!r} "
-                             f"(parameters: {', '.join(names) or 'none'})")
-        for name, value in parameters.items():
-            if not np.isfinite(value) or value <= 0:
-                raise InputError(f"parameter {name!r} must be a positive exponent (bohr⁻¹), got {value!r}")
-        params = [replace(p, initial=float(parameters.get(p.name, p.initial))) for p in params]
-    do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
-    values = {p.name: p.initial for p in params}
-    record = None
-    if do_optimize and params:
-        # families with many terms (exponential) tune their parameters on a smaller basis
-        tune_size = fam.optimization_size(ion, state, size) if hasattr(fam, "optimization_size") else size
-
-        def energy(v):
-            _b, _m, eig = _evaluate(fam, ion, state, tune_size, v, options, drop_threshold)
-            return eig.values[state.root]
-
-        values, _best, opt = minimize_energy(energy, params, progress=progress)
-        record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
-                  "message": opt.message, "initial": opt.initial, "size": tune_size}
+    plan = _validate(Z, state, family, size, parameters, optimize, options, precision, digits,
+                     drop_threshold)
+    values, record = _optimize(plan, progress)
     stage = on_stage or (lambda _text: None)
-    stage(f"float64 build and solve ({fam.name}" + (f", size {size})" if size is not None else ")"))
-    basis, matrices, eig = _evaluate(fam, ion, state, size, values, options, drop_threshold)
-    energy_value = float(eig.values[state.root])
-    kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
-    if do_optimize and params and all(p.kind == "exponent" for p in params) and kinetic > 0:
-        scale = -potential / (2.0 * kinetic)
-        scaled = {k: v * scale for k, v in values.items()}
-        try:
-            b2, m2, e2 = _evaluate(fam, ion, state, size, scaled, options, drop_threshold)
-        except Exception:  # a rescaled point that fails is simply not taken
-            e2 = None
-        # accept unless it raises the energy beyond rounding: the optimum obeys the virial theorem
-        if e2 is not None and e2.values[state.root] <= energy_value + 1e-14 * abs(energy_value):
-            basis, matrices, eig, values = b2, m2, e2, scaled
-            energy_value = float(eig.values[state.root])
-            kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
-            record["virial_rescale"] = scale
-    refined = None
-    high = _zero_power(basis) and getattr(fam, "name", "") == "exponential"
-    if precision == "extended" and not high:
-        raise UnsupportedError("precision='extended' needs the exponential family (S states)")
-    bar = None
-    kept_start = None
-    if high:
-        refined = _refine(basis, ion, state, eig, precision, digit_target, stage=stage)
-        energy_value = refined.energy_hartree
-        if record is not None:
-            # the optimizer minimized the float64 energy, blind below ~1e-10 Eh: if the starting
-            # (stored) edges give the lower refined energy, the variational principle prefers them
-            start_values = {p.name: p.initial for p in params}
-            stage(f"comparing with the starting box edges, N = {size}")
-            b0, m0, e0 = _evaluate(fam, ion, state, size, start_values, options, drop_threshold)
-            r0 = _refine(b0, ion, state, e0, precision, digit_target)
-            if r0.energy_hartree < refined.energy_hartree:
-                kept_start = (refined.energy_hartree, r0.energy_hartree)
-                basis, matrices, eig, values, refined = b0, m0, e0, start_values, r0
-                energy_value = refined.energy_hartree
-                kinetic, potential = _expectations(matrices, eig, state.root, ion.Z)
-                record["kept_start"] = True
-        if error_bar is None or error_bar:
-            bar = _error_bar(fam, ion, state, size, values, options, drop_threshold, precision,
-                             digit_target, refined, stage)
+    stage(f"float64 build and solve ({plan.fam.name}"
+          + (f", size {plan.size})" if plan.size is not None else ")"))
+    solved = _virial_rescale(plan, _solve_at(plan, values), record)
+    solved, kept_start = _refine_step(plan, solved, record, stage)
+    bar = _error_bar_step(plan, solved, error_bar, stage)
+    return _assemble(plan, solved, record, kept_start, bar, time.perf_counter() - started)
+
+
+def _notes_and_warnings(plan: _Plan, solved: _Solved, record, kept_start, bar) -> tuple[list, list]:
     warn_list, notes = [], []
-    if ion.note:
-        notes.append(ion.note)
+    eig, refined = solved.eig, solved.refined
+    if plan.ion.note:
+        notes.append(plan.ion.note)
     if kept_start is not None:
         warn_list.append(f"--optimize found box edges whose refined energy ({kept_start[0]!r} Eh) is "
                          f"above that of the starting edges ({kept_start[1]!r} Eh): the optimizer "
@@ -195,7 +314,7 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         text = (f"overlap condition number {eig.condition_number:.1e} (diagonally scaled): the basis "
                 "is nearly linearly dependent and the last float64 digits of the energy may be noise")
         warn_list.append(text)
-        warnings.warn(text, AccuracyWarning, stacklevel=2)
+        warnings.warn(text, AccuracyWarning, stacklevel=4)
     if refined is not None:
         notes.append(f"energy refined beyond float64: {refined.method} ({refined.working_bits} bits); "
                      f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh; the virial ratio, "
@@ -205,6 +324,43 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
                      f"(canonical orthogonalization, threshold {eig.drop_threshold:g})")
     if record is not None and not record["success"]:
         warn_list.append(f"optimizer reported: {record['message']}")
+    if refined is not None:
+        boxes = plan.fam.provenance(plan.ion, plan.state)
+        origin = None if boxes is None else boxes.get("origin")
+        if origin not in (None, "stored") and not plan.do_optimize:
+            notes.append(f"exponent boxes: {origin} (no optimized set stored for {plan.ion.label} "
+                         f"{plan.state.label}); --optimize may improve the energy")
+        if bar is not None and not bar["reliable"]:
+            warn_list.append(f"error bar may be unreliable: {bar['note']}")
+    return warn_list, notes
+
+
+def _provenance(plan: _Plan, solved: _Solved, bar) -> dict:
+    provenance = {
+        "package": "twoel", "version": __version__, "method": "Rayleigh-Ritz variational",
+        "family": plan.fam.name, "size": plan.size, "options": _jsonable(plan.options),
+        "state": plan.state.label, "Z": plan.ion.Z, "parameters": dict(solved.values),
+        "precision": plan.precision, "drop_threshold": plan.drop_threshold,
+        "optimized": plan.do_optimize, "basis": solved.basis.describe(),
+        "constants": constants.CODATA_EDITION, "numpy": np.__version__,
+    }
+    refined = solved.refined
+    if refined is not None:
+        provenance["refinement"] = refined.to_dict()
+        provenance["energy_full_text"] = refined.text
+        provenance["numerical_error_hartree"] = refined.numerical_error_hartree
+        boxes = plan.fam.provenance(plan.ion, plan.state)
+        if boxes is not None:
+            provenance["boxes"] = boxes
+        if bar is not None:
+            provenance["error_bar"] = bar
+    return provenance
+
+
+def _assemble(plan: _Plan, solved: _Solved, record, kept_start, bar, elapsed) -> EnergyResult:
+    ion, state, eig, refined = plan.ion, plan.state, solved.eig, solved.refined
+    warn_list, notes = _notes_and_warnings(plan, solved, record, kept_start, bar)
+    energy_value = solved.energy
     bound = energy_value < ion.threshold_hartree
     if bound:
         status, message = "ok", "bound"
@@ -212,50 +368,27 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily = "hylleraas
         status = "not bound"
         message = (f"variational energy {energy_value:.10f} Eh is not below the one-electron "
                    f"threshold {ion.threshold_hartree:.10f} Eh: the state is not bound in this basis")
-    reference = lookup(ion.Z, state) if not ion.is_model else None
-    provenance = {
-        "package": "twoel", "version": __version__, "method": "Rayleigh-Ritz variational",
-        "family": fam.name, "size": size, "options": _jsonable(options), "state": state.label,
-        "Z": ion.Z, "parameters": dict(values), "precision": precision,
-        "drop_threshold": drop_threshold, "optimized": bool(do_optimize and params),
-        "basis": basis.describe(), "constants": constants.CODATA_EDITION,
-        "numpy": np.__version__,
-    }
-    energy_text = None
+    energy_text = error_value = None
     if refined is not None:
-        provenance["refinement"] = refined.to_dict()
-        provenance["energy_full_text"] = refined.text
-        provenance["numerical_error_hartree"] = refined.numerical_error_hartree
-        if hasattr(fam, "provenance"):
-            provenance["boxes"] = fam.provenance(ion, state)
-            origin = provenance["boxes"].get("origin")
-            if origin not in (None, "stored") and not do_optimize:
-                notes.append(f"exponent boxes: {origin} (no optimized set stored for {ion.label} "
-                             f"{state.label}); --optimize may improve the energy")
-        if bar is not None:
-            provenance["error_bar"] = bar
-            error_value = bar["error_bar_hartree"]
-            energy_text = truncate_text(refined.text, error_value)
-        else:
-            error_value = None
-            energy_text = truncate_text(refined.text, refined.numerical_error_hartree)
-        if bar is not None and not bar["reliable"]:
-            warn_list.append(f"error bar may be unreliable: {bar['note']}")
-    else:
-        error_value = None
+        error_value = None if bar is None else bar["error_bar_hartree"]
+        energy_text = truncate_text(refined.text, refined.numerical_error_hartree
+                                    if bar is None else error_value)
+    kinetic, potential = solved.kinetic, solved.potential
     return EnergyResult(
-        Z=ion.Z, ion=ion.label, state=state.label, family=fam.name, size=size, n_terms=basis.size,
-        energy_hartree=energy_value, bound=bool(bound), threshold_hartree=ion.threshold_hartree,
-        parameters=dict(values), roots_hartree=tuple(float(x) for x in eig.values[:6]),
+        Z=ion.Z, ion=ion.label, state=state.label, family=plan.fam.name, size=plan.size,
+        n_terms=solved.basis.size, energy_hartree=energy_value, bound=bool(bound),
+        threshold_hartree=ion.threshold_hartree, parameters=dict(solved.values),
+        roots_hartree=tuple(float(x) for x in eig.values[:6]),
         kinetic_hartree=kinetic, potential_hartree=potential,
         virial_ratio=-potential / kinetic if kinetic else float("nan"),
-        condition_number=eig.condition_number, n_dropped=eig.n_dropped, precision=precision,
-        status=status, message=message, reference=reference, optimizer=record,
+        condition_number=eig.condition_number, n_dropped=eig.n_dropped, precision=plan.precision,
+        status=status, message=message,
+        reference=lookup(ion.Z, state) if not ion.is_model else None, optimizer=record,
         warnings=tuple(warn_list), notes=tuple(notes),
         energy_hartree_text=energy_text, error_bar_hartree=error_value,
-        elapsed_seconds=time.perf_counter() - started, provenance=provenance,
+        elapsed_seconds=elapsed, provenance=_provenance(plan, solved, bar),
         wavefunction=Wavefunction(
-            basis, eig.vectors[:, state.root].copy(),
+            solved.basis, eig.vectors[:, state.root].copy(),
             None if refined is None else np.asarray(refined.vector, dtype=float).copy(),
             None if refined is None else refined.energy_hartree),
     )
@@ -291,32 +424,6 @@ def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, d
     return extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
                            digits, float(condition_digits),
                            gap=float(min(upper - mixed.energy_hartree, 1.0)))
-
-
-def _error_bar(fam, ion, state, size, values, options, drop_threshold, precision, digits, refined,
-               stage) -> dict:
-    """Truncation error from the nested smaller bases ``N/2`` and ``N/√2`` (see twoel.analysis.convergence)."""
-    from twoel.analysis.convergence import error_bar_sizes, estimate_tail
-
-    texts, numerical = [], [refined.numerical_error_hartree]
-    sizes = error_bar_sizes(size)
-    for n in sizes:
-        # the smaller bases only feed differences: the mixed refinement suffices unless its
-        # arithmetic bound is coarser than the digit target, then they are refined like size
-        stage(f"error bar: smaller basis N = {n}")
-        b, _m, e = _evaluate(fam, ion, state, n, values, options, drop_threshold)
-        aux = _refine(b, ion, state, e, "float64", None, stage=stage)
-        if precision == "extended" and aux.numerical_error_hartree > _target_error(aux, digits):
-            aux = _refine(b, ion, state, e, "extended", digits, start=aux, stage=stage)
-        texts.append(aux.text)
-        numerical.append(aux.numerical_error_hartree)
-    texts.append(refined.text)
-    energies = [float(t) for t in texts]
-    estimate = estimate_tail(energies, max(numerical), texts)
-    return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
-            "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
-            "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,
-            "note": estimate.note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
 
 
 def _jsonable(options: dict) -> dict:

@@ -33,6 +33,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from twoel.results import Result
 from twoel.errors import ConvergenceError, InputError
 from twoel.integrals import precise
 from twoel.integrals.doubledouble import DD
@@ -46,8 +47,8 @@ MAX_DIGITS = 60
 _LOG2_10 = math.log2(10.0)
 
 
-@dataclass(frozen=True)
-class RefinedEnergy:
+@dataclass(frozen=True, repr=False)
+class RefinedEnergy(Result):
     """An energy beyond float64 with its arithmetic error.
 
     Attributes
@@ -80,6 +81,8 @@ class RefinedEnergy:
     seconds: dict = field(default_factory=dict)
     vector: object = field(default=None, compare=False, repr=False)
     lost_digits: float = 0.0
+
+    SUMMARY = ("text", "numerical_error_hartree", "method")
 
     def to_dict(self) -> dict:
         return {"energy_hartree": self.energy_hartree, "energy_hartree_text": self.text,

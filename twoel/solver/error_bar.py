@@ -1,0 +1,157 @@
+r"""The one convergence extrapolation: geometric tail of nested bases, and the error bar of a solve.
+
+For nested bases ``N_1 < N_2 < ... < N_K`` the energies ``E_k`` decrease (Rayleigh–Ritz).  With
+the steps ``d_k = E_{k-1} - E_k`` and their ratios ``q_k = d_k / d_{k-1}`` a geometric tail
+gives the remaining error of the last energy
+
+.. math:: E_K - E_\infty \approx d_K \frac{q}{1-q},
+
+with ``q`` the *largest* of the last two ratios (the slower one, so the tail is not
+underestimated), kept between 1/3 and 0.8: quasi-random nested bases converge
+sub-geometrically, so an apparently fast ratio is not trusted, and an erratic or near-1 ratio is
+capped (and reported as unreliable).  This is the Aitken/Richardson-type estimate customary for
+explicitly correlated bases (e.g. Drake, Springer Handbook of Atomic, Molecular and Optical
+Physics (2006), ch. 11, where ratios of successive differences are tabulated).
+
+``variational error bar``: ``2·tail + numerical error``; the true ``E_K - E_exact`` is positive
+and expected within it.  ``extrapolated value``: ``E_K - d_K q/(1-q)`` with the *measured*
+ratio, with the bar ``tail + numerical error`` from the conservative one.
+
+:func:`nested_error_bar` is the error bar of one solve of size ``N`` from the bases ``N/2`` and
+``N/√2`` (:func:`error_bar_sizes`); :mod:`twoel.analysis.convergence` uses the same
+:func:`estimate_tail` for a study over many sizes.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Callable, Sequence
+
+from twoel.errors import InputError
+
+#: largest ratio of successive differences trusted for the geometric tail
+MAX_RATIO = 0.8
+#: smallest ratio used: quasi-random nested bases converge sub-geometrically, so a fast apparent
+#: ratio from a few sizes underestimates the tail (measured for He, H⁻, Li⁺ with N ratio √2)
+MIN_RATIO = 1.0 / 3.0
+#: factor between the tail estimate and the error bar of the variational (upper-bound) value
+BAR_FACTOR = 2.0
+
+
+@dataclass(frozen=True)
+class TailEstimate:
+    """Extrapolation of a decreasing energy sequence (Eh)."""
+
+    tail_hartree: float
+    ratio: float
+    extrapolated_hartree: float
+    variational_bar_hartree: float
+    extrapolated_bar_hartree: float
+    reliable: bool
+    note: str = ""
+
+
+def steps(energies: Sequence, precise: Sequence | None = None) -> list[float]:
+    """``d_k = E_{k-1} - E_k`` for ``k = 1 .. K-1`` (Eh).
+
+    With ``precise`` (the same energies as decimal strings or ``mpmath.mpf``) the differences
+    are taken at 60 digits (needed beyond ~1e-15 relative).
+    """
+    if precise is None:
+        E = [float(e) for e in energies]
+        return [E[k - 1] - E[k] for k in range(1, len(E))]
+    import mpmath
+
+    with mpmath.workdps(60):
+        values = [mpmath.mpf(str(e)) for e in precise]
+        return [float(values[k - 1] - values[k]) for k in range(1, len(values))]
+
+
+def step_ratios(d: Sequence[float]) -> list:
+    """``q_k = d_k / d_{k-1}`` for consecutive steps (``None`` where ``d_{k-1} = 0``)."""
+    return [d[k] / d[k - 1] if d[k - 1] else None for k in range(1, len(d))]
+
+
+def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
+                  energies_precise: Sequence | None = None) -> TailEstimate:
+    """Tail of the sequence (see module text).  Needs at least three energies.
+
+    Parameters
+    ----------
+    energies : sequence of float
+        ``E(N_k)`` for increasing nested sizes (Eh).
+    numerical_error : float
+        Arithmetic error of the last energy (Eh), added to the bars.
+    energies_precise : sequence, optional
+        The same energies as higher-precision numbers (``mpmath.mpf`` or decimal strings); the
+        differences are then taken from them (needed beyond ~1e-15 relative).
+    """
+    if len(energies) < 3:
+        raise InputError("a convergence estimate needs at least three basis sizes")
+    diffs = steps(energies, energies_precise)
+    d_last, d_prev = diffs[-1], diffs[-2]
+    floor = max(numerical_error, 0.0)
+    reliable = True
+    note = ""
+    if d_last < -2 * floor - 1e-300 or d_prev < -2 * floor - 1e-300:
+        reliable = False
+        note = "energies do not decrease with N (numerical noise or non-nested bases)"
+    ratios = [diffs[k] / diffs[k - 1] for k in range(1, len(diffs)) if diffs[k - 1] > 0]
+    tail_ratios = ratios[-2:] if len(ratios) >= 2 else ratios
+    q = max(tail_ratios) if tail_ratios else MAX_RATIO
+    if not 0 < q < MAX_RATIO:
+        if not note:
+            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
+        reliable = reliable and 0 < q < 1
+        q = MAX_RATIO
+    d = max(abs(d_last), 0.0)
+    measured_tail = d * q / (1.0 - q) if q > 0 else 0.0  # best guess, for the extrapolation
+    q = max(q, MIN_RATIO)
+    tail = d * q / (1.0 - q)  # conservative, for the bars
+    if d <= 2 * floor:
+        note = note or "differences at the level of the arithmetic error: converged to it"
+        tail = max(tail, floor)
+    last = float(energies[-1])
+    variational_bar = BAR_FACTOR * tail + floor
+    extrapolated_bar = tail + floor
+    return TailEstimate(tail, q, last - measured_tail, variational_bar, extrapolated_bar, reliable, note)
+
+
+def error_bar_sizes(size: int) -> list[int]:
+    """The two smaller sizes used for the error bar of a single ``size`` (``N/2``, ``N/√2``)."""
+    return sorted({max(4, int(round(size / 2))), max(5, int(round(size / math.sqrt(2.0))))} - {size})
+
+
+def nested_error_bar(refined_at: Callable[[int], object], size: int, refined) -> dict:
+    """Truncation error bar of a solve of ``size`` terms from the nested bases ``N/2``, ``N/√2``.
+
+    Parameters
+    ----------
+    refined_at : callable
+        ``refined_at(n)`` returns the refined energy (a
+        :class:`twoel.solver.refine.RefinedEnergy`) of the nested basis of ``n`` terms.
+    size : int
+        The size of the solve.
+    refined : RefinedEnergy
+        Its refined energy.
+
+    Returns
+    -------
+    dict
+        ``error_bar_hartree``, ``tail_hartree``, ``ratio``, ``sizes``, ``energy_texts``,
+        ``extrapolated_hartree`` (Eh), ``reliable``, ``note``, ``method``.
+    """
+    texts, numerical = [], [refined.numerical_error_hartree]
+    sizes = error_bar_sizes(size)
+    for n in sizes:
+        aux = refined_at(n)
+        texts.append(aux.text)
+        numerical.append(aux.numerical_error_hartree)
+    texts.append(refined.text)
+    energies = [float(t) for t in texts]
+    estimate = estimate_tail(energies, max(numerical), texts)
+    return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
+            "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
+            "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,
+            "note": estimate.note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
