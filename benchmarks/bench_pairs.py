@@ -35,21 +35,13 @@ def _best(fn, repeat: int) -> float:
 
 
 def _evaluators():
-    """The operator-set evaluators of this checkout (before and after the single evaluator)."""
-    from twoel.corrections import operators as corr
+    """The corrections and properties operator-set evaluators (the one pair evaluator)."""
     from twoel.integrals import pairs
+    from twoel.properties import operators as corr
 
-    single = hasattr(pairs, "primitive_matrices")
     specs = {n: s for n, s in corr.MULTIPLICATIVE.items() if n not in ("inv_r1", "inv_r12")}
     specs.update(corr.DERIVATIVE)
-    if single:
-        corrections = lambda basis: pairs.operator_matrices(basis, specs)  # noqa: E731
-        properties = pairs.operator_matrices
-    else:
-        from twoel.corrections.integrals import basis_matrices
-        from twoel.integrals.hamiltonian import operator_matrices as properties
-        corrections = lambda basis: basis_matrices(basis, specs)  # noqa: E731
-    return corrections, properties
+    return (lambda basis: pairs.operator_matrices(basis, specs)), pairs.operator_matrices
 
 
 def measure(repeat: int) -> dict:
