@@ -219,7 +219,7 @@ def test_ground_state_acceptance_moments():
 @pytest.mark.skipif("exponential" not in family_names(), reason="exponential family not available")
 @pytest.mark.xfail(strict=True, reason="not met with this basis: the regularized δ forms are float64 evaluations of "
                    "the float64 eigenvector (measured 3.6e-7 and 1.7e-7 relative at N = 600); the "
-                   "double-sector Hylleraas basis meets it (tests/properties/test_two_scale_deltas.py)")
+                   "two-scale Hylleraas basis meets it (tests/properties/test_two_scale_deltas.py)")
 def test_ground_state_acceptance_deltas(ground_600):
     """Acceptance (Drake 2006, from memory): regularized δ³(r1), δ³(r12) to 1e-7 relative."""
     v = ground_600

@@ -1,4 +1,4 @@
-"""He 1¹S Dirac-delta expectation values to 1e-7 with a large double-sector Hylleraas basis.
+"""He 1¹S Dirac-delta expectation values to 1e-7 with a large two-scale Hylleraas basis.
 
 Values: Drake, Springer Handbook of Atomic, Molecular and Optical Physics (2006), ch. 11 tables
 (from memory; the regularized values of twoel agree with them to ~1e-8).

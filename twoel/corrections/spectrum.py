@@ -45,7 +45,7 @@ from twoel.corrections.relativistic import CAUTION_Z_ALPHA, breit_pauli_s
 
 MEASURED_TABLE = "measured_ionization_energies.csv"
 
-#: preset double-sector Hylleraas bases: state -> quality -> [(ω, α/unit, β/unit)], unit given
+#: preset two-scale Hylleraas bases: state -> quality -> [(ω, α/unit, β/unit)], unit given
 _PRESETS = {
     "ground": {"fast": [(8, 0.9, 1.1), (6, 2.25, 3.0)], "default": [(12, 0.9, 1.1), (10, 2.25, 3.0)]},
     "ground_h": {"fast": [(10, 1.0, 0.3), (8, 1.2, 0.6)],
@@ -56,7 +56,7 @@ QUALITIES = ("fast", "default")
 
 
 def preset_basis(Z: float, state: State, quality: str = "default") -> CorrelatedBasis:
-    """A fixed double-sector Hylleraas basis ``Σ r1^i r2^j r12^k e^{-α r1 - β r2}`` for the state.
+    """A fixed two-scale Hylleraas basis ``Σ r1^i r2^j r12^k e^{-α r1 - β r2}`` for the state.
 
     Exponents scale with ``Z`` (inner electron) and ``Z - 1`` (outer electron of ``2S``); they
     were chosen once for He and H⁻ (errors about 3e-11, 1e-8 (2¹S), 5e-11 (2³S), 2e-10 (H⁻) Eh).
@@ -206,7 +206,7 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
         energy = float(eig.values[st.root])
         wavefunction = Wavefunction(basis, eig.vectors[:, st.root].copy())
         root = st.root
-        basis_note = f"preset double-sector Hylleraas basis ({quality}), {basis.size} functions"
+        basis_note = f"preset two-scale Hylleraas basis ({quality}), {basis.size} functions"
     else:
         basis = wavefunction.basis
         root = None

@@ -24,23 +24,28 @@ def radial_integral(n, lam):
 
     Parameters
     ----------
-    n : float or array_like
-        Power of ``r`` (> -3).
+    n : int, float or array_like
+        Power of ``r`` (> -3).  An ``int`` (or an integer array) uses the exact factorial
+        ``(n+2)!``; real powers use ``Γ(n+3)`` through ``gammaln``.
     lam : float or array_like
-        Exponent ``λ`` (bohr⁻¹, > 0).
+        Exponent ``λ`` (bohr⁻¹, > 0), broadcast against ``n``.
 
     Returns
     -------
     float or numpy.ndarray
         The integral; a Python float for scalar arguments.
     """
-    if np.isscalar(n) and np.isscalar(lam):
-        n, lam = float(n), float(lam)
-        if n.is_integer() and 0 <= n + 2 <= 170:  # exact factorial: correctly rounded for small n
-            return FOUR_PI * math.factorial(int(n) + 2) / lam ** (int(n) + 3)
-        return FOUR_PI * math.exp(math.lgamma(n + 3.0) - (n + 3.0) * math.log(lam))
+    if isinstance(n, (int, np.integer)) and not isinstance(n, bool):
+        k = int(n)
+        value = FOUR_PI * math.factorial(k + 2) / (lam if np.isscalar(lam) else np.asarray(lam, dtype=float)) ** (k + 3)
+        return float(value) if np.isscalar(lam) else value
+    n_array = np.asarray(n)
+    if n_array.dtype.kind in "iu":
+        factorials = np.array([math.factorial(int(v) + 2) for v in n_array.ravel()]).reshape(n_array.shape)
+        return FOUR_PI * factorials / np.asarray(lam, dtype=float) ** (n_array + 3)
     from scipy.special import gammaln
 
-    n = np.asarray(n, dtype=float)
+    n_array = n_array.astype(float)
     lam = np.asarray(lam, dtype=float)
-    return FOUR_PI * np.exp(gammaln(n + 3.0) - (n + 3.0) * np.log(lam))
+    value = FOUR_PI * np.exp(gammaln(n_array + 3.0) - (n_array + 3.0) * np.log(lam))
+    return float(value) if value.ndim == 0 else value

@@ -25,13 +25,13 @@ triple sum, is checked against SymPy's exact derivatives in the tests.)
 from __future__ import annotations
 
 from functools import lru_cache
-from math import comb, factorial, pi
+from math import comb, factorial
 
 import numpy as np
 
+from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.errors import InputError
 
-FOUR_PI_SQUARED_TIMES_4 = 16.0 * pi * pi
 
 #: largest power handled (table side); factorials stay far from float64 overflow
 MAX_POWER = 60
@@ -96,7 +96,7 @@ def integral_table(alpha, beta, gamma, max_power: int) -> np.ndarray:
             coeff[:, l, :, n] = np.einsum("eamb,eba->em", Q[:, : l + 1, :, : n + 1],
                                           P3[:, n::-1, l::-1])
     f = _factorials(size)
-    weight = FOUR_PI_SQUARED_TIMES_4 * f[:, None, None] * f[None, :, None] * f[None, None, :]
+    weight = SIXTEEN_PI_SQUARED * f[:, None, None] * f[None, :, None] * f[None, None, :]
     return coeff * weight[None]
 
 

@@ -54,16 +54,16 @@ from __future__ import annotations
 
 from collections import defaultdict
 from functools import lru_cache
-from math import comb, factorial, log, pi
+from math import comb, factorial
 
 import numpy as np
 
+from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.errors import InputError
 from twoel.integrals.generated import state_terms as T
 from twoel.integrals.generated.kinetic_terms import kinetic_terms
 from twoel.integrals.kernels import MAX_POWER, integral_table
 
-SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 #: Gauss–Legendre order of K(p, q) for exponent-sum ratios below RECURSION_RATIO
 QUADRATURE_ORDER = 32
 #: from this ratio max(A, C)/min(A, C) on, K(p, q) comes from the exact recursion

@@ -13,13 +13,12 @@ Frolov & Smith, J. Phys. B 28, L449 (1995).
 
 from __future__ import annotations
 
-from math import pi
 
 import numpy as np
 
+from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.integrals.generated import zero_power_kernels as _exponential
 
-SIXTEEN_PI_SQUARED = 16.0 * pi * pi
 
 
 def supports(operators: dict) -> bool:

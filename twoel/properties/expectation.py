@@ -49,11 +49,11 @@ import numpy as np
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
+from twoel.integrals.closed_forms import FOUR_PI, radial_integral
 from twoel.integrals.pairs import basis_kind, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
 from twoel.results import EnergyResult, Wavefunction
 
-FOUR_PI = 4.0 * math.pi
 
 
 @dataclass(frozen=True)
@@ -180,9 +180,7 @@ def _primitive_coefficients(basis, coefficients: np.ndarray) -> np.ndarray:
 
 def _radial_moment(n: np.ndarray, lam: np.ndarray, angular: float = 1.0) -> np.ndarray:
     """``angular · 4π ∫_0^∞ r^(n+2) e^{-λ r} dr = angular · 4π (n+2)! / λ^(n+3)``."""
-    from scipy.special import gammaln
-
-    return angular * FOUR_PI * np.exp(gammaln(n + 3.0) - (n + 3.0) * np.log(lam))
+    return angular * radial_integral(n, lam)
 
 
 def _coalescence(basis, d: np.ndarray) -> dict[str, float]:

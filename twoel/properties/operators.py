@@ -30,12 +30,13 @@ Two forms are kept for the Dirac deltas:
 from __future__ import annotations
 
 from dataclasses import asdict, dataclass
-from math import factorial, pi
+from math import pi
 
 import numpy as np
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
+from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.pairs import UNIT, contract, operator_matrices
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
@@ -89,7 +90,7 @@ def _delta_pairs(basis: CorrelatedBasis, which: str) -> np.ndarray:
             mask = tp[..., 2] == 0
             vals = np.zeros((P, P))
             nn = n[mask]
-            vals[mask] = 4 * pi * np.array([factorial(int(v) + 2) for v in nn]) / rate[mask] ** (nn + 3)
+            vals[mask] = radial_integral(nn, rate[mask])
             out += weight * vals
         else:
             # δ(r1): r1 = 0, r12 = r2;  δ(r2): r2 = 0, r12 = r1
@@ -99,7 +100,7 @@ def _delta_pairs(basis: CorrelatedBasis, which: str) -> np.ndarray:
                 rate = te[..., other] + te[..., 2]
                 vals = np.zeros((P, P))
                 nn = n[mask]
-                vals[mask] = 4 * pi * np.array([factorial(int(v) + 2) for v in nn]) / rate[mask] ** (nn + 3)
+                vals[mask] = radial_integral(nn, rate[mask])
                 out += 0.5 * weight * vals
     return out
 

@@ -46,6 +46,7 @@ import scipy.optimize
 from twoel import constants
 from twoel._version import __version__
 from twoel.errors import ConvergenceError, InputError, LinearDependenceError, TwoelError
+from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.kernels import integral_table
 from twoel.system import Ion
 
@@ -85,8 +86,7 @@ def even_tempered(a: float, b: float, n: int) -> np.ndarray:
 
 def slater_one_electron(n: int, s) -> np.ndarray:
     """``J_n(s) = ∫ r^n e^{-s r} d³r = 4π (n+2)!/s^(n+3)`` for ``n >= -2`` (bohr^(n+3))."""
-    s = np.asarray(s, dtype=float)
-    return 4.0 * math.pi * math.factorial(n + 2) / s ** (n + 3)
+    return radial_integral(int(n), np.asarray(s, dtype=float))
 
 
 @dataclass(frozen=True)
