@@ -143,3 +143,24 @@ def dd_matvec(matrix: DD, vector: DD) -> DD:
 def dd_dot(x: DD, y: DD) -> DD:
     """``Σ x_i y_i`` in double-double."""
     return dd_sum(x * y, axis=0)
+
+
+def _aligned(x: DD, letters: str, order: str) -> DD:
+    """``x`` (axes named by ``letters``) with its axes in ``order``, singleton axes inserted."""
+    axes = [letters.index(c) for c in order if c in letters]
+    hi, lo = np.transpose(x.hi, axes), np.transpose(x.lo, axes)
+    shape = [x.hi.shape[letters.index(c)] if c in letters else 1 for c in order]
+    return DD(hi.reshape(shape), lo.reshape(shape))
+
+
+def dd_einsum(spec: str, x: DD, y: DD) -> DD:
+    """Two-operand ``einsum`` in double-double (``"eam,emn->ean"``; no repeated letters within
+    an operand): broadcast products, then pairwise double-double sums over the contracted axes."""
+    inputs, output = spec.replace(" ", "").split("->")
+    first, second = inputs.split(",")
+    contracted = "".join(dict.fromkeys(c for c in first + second if c not in output))
+    order = output + contracted
+    product = _aligned(x, first, order) * _aligned(y, second, order)
+    for axis in range(len(order) - 1, len(output) - 1, -1):
+        product = dd_sum(product, axis=axis)
+    return product

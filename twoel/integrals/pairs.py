@@ -8,27 +8,18 @@ or ``z1 χ`` (P, :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
           e^{-\alpha r_1 - \beta r_2 - \gamma r_{12}}\, d^3r_1\, d^3r_2
 
 over the summed bra + ket exponents; only the zero-power Hamiltonian has a separate closed-form
-path (:mod:`twoel.integrals.zero_power`).  Two sources of ``I`` are used:
+path (:mod:`twoel.integrals.zero_power`).  Every ``I`` comes from the one series of
+:mod:`twoel.integrals.series`, used in two ways:
 
 tables
-    bases with few distinct exponent sums (Hylleraas-type) take whole tables of powers from
-    :func:`twoel.integrals.kernels.integral_table` (and :func:`inverse_square_table`);
+    bases with few distinct exponent sums (Hylleraas-type) take whole tables of powers
+    (:func:`twoel.integrals.series.integral_table`, :func:`inverse_square_table`);
 pair series
     bases with many distinct exponent sums (exponential-type) evaluate one power triple for all
-    pairs at once with the same all-positive series (``A = α+β``, ``B = β+γ``, ``C = γ+α``)
+    pairs at once (:class:`PairIntegrals`).
 
-    .. math::
-
-        I(a,b,c) = 16\pi^2\, a'!\, b'!\, c'! \sum_{l_1 \le a'} \sum_{m_1 \le b'} \sum_{n_1 \le c'}
-            \frac{\binom{l_1+m_1}{l_1}}{A^{l_1+m_1+1}}
-            \frac{\binom{m_2+n_1}{n_1}}{B^{m_2+n_1+1}}
-            \frac{\binom{n_2+l_2}{l_2}}{C^{n_2+l_2+1}},
-
-    ``a' = a+1`` (etc.), ``l_2 = a' - l_1``, ``m_2 = b' - m_1``, ``n_2 = c' - n_1``.
-
-One index may be ``-2`` (``⟨1/r1²⟩``, ``(E - V)²`` and the global-operator δ forms).  Then
-``I(-2,b,c; α) = ∫_α^∞ I(-1,b,c; α') dα'`` and the ``A``, ``C`` factors of the series become
-``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` (``p + q >= 2``), see :func:`k_integral`.  The
+One index may be ``-2`` (``⟨1/r1²⟩``, ``(E - V)²`` and the global-operator δ forms), through
+``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` (:func:`k_integral`).  The
 integral is symmetric under simultaneous permutation of ``(r1, r2, r12)`` and ``(α, β, γ)``,
 which reduces ``b = -2`` and ``c = -2`` to ``a = -2``.
 
@@ -53,21 +44,14 @@ is dropped.
 from __future__ import annotations
 
 from collections import defaultdict
-from functools import lru_cache
-from math import comb, factorial
 
 import numpy as np
 
-from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.errors import InputError
 from twoel.integrals.generated import state_terms as T
 from twoel.integrals.generated.kinetic_terms import kinetic_terms
-from twoel.integrals.kernels import MAX_POWER, integral_table
-
-#: Gauss–Legendre order of K(p, q) for exponent-sum ratios below RECURSION_RATIO
-QUADRATURE_ORDER = 32
-#: from this ratio max(A, C)/min(A, C) on, K(p, q) comes from the exact recursion
-RECURSION_RATIO = 10.0
+from twoel.integrals.series import (MAX_POWER, InverseSquareSeries, KValues, MasterSeries,
+                                    check_exponents, integral_table)
 #: bases with more distinct exponent sums per pair block get blocks sized by TABLE_ENTRIES
 TABLE_ROWS = 16
 #: table entries (float64) per pair block for bases with powers and many distinct exponents
@@ -78,103 +62,8 @@ UNIT = [(1.0, (0, 0, 0))]
 INTEGRANDS = ("unit", "kinetic", "grad11", "grad22", "grad12", "laplacian", "lap1lap2")
 
 
-@lru_cache(maxsize=None)
-def _legendre(order: int):
-    x, w = np.polynomial.legendre.leggauss(order)
-    return 0.5 * (x + 1.0), 0.5 * w
-
-
-class _Powers:
-    """Cached integer powers of an array."""
-
-    def __init__(self, base: np.ndarray):
-        self.base = base
-        self.cache = {0: np.ones_like(base), 1: base}
-
-    def __call__(self, n: int) -> np.ndarray:
-        if n not in self.cache:
-            half = self(n // 2)
-            self.cache[n] = half * half * (self.base if n % 2 else 1.0)
-        return self.cache[n]
-
-
-class _KValues:
-    r"""``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for arrays ``A, C > 0``, cached per ``(p, q)``.
-
-    With ``ρ = max(A, C)/min(A, C)``:
-
-    * ``ρ >= RECURSION_RATIO``: the exact recursion ``K(p, q) = (K(p, q-1) - K(p-1, q))/(C - A)``
-      from ``K(p, 0) = A^{1-p}/(p-1)``, ``K(0, q) = C^{1-q}/(q-1)``,
-      ``K(1, 1) = ln(C/A)/(C - A)``; the subtracted term is smaller by ~``1/ρ``, so there is
-      no cancellation (relative error < 1e-13 for ``p + q <= 26``; the tests check against SymPy
-      and 60-digit mpmath);
-    * ``ρ < RECURSION_RATIO``: Gauss–Legendre quadrature after ``t = M(1/u - 1)``,
-      ``M = sqrt(AC)``, which puts both poles at negative ``u`` and makes the integrand smooth:
-      16 nodes for ``ρ <= 3`` and ``p + q <= 12``, else 32 (relative error ~1e-14).
-    """
-
-    def __init__(self, A: np.ndarray, C: np.ndarray):
-        A, C = A.reshape(-1), C.reshape(-1)
-        self.n = A.shape[0]
-        ratio = np.maximum(A, C) / np.minimum(A, C)
-        far = ratio >= RECURSION_RATIO
-        self.far = np.nonzero(far)[0]
-        self.close = np.nonzero(~far & (ratio <= 3.0))[0]
-        self.middle = np.nonzero(~far & (ratio > 3.0))[0]
-        self.A, self.C = A, C
-        self._nodes: dict = {}
-        self._recursion: dict = {}
-        self._values: dict = {}
-
-    def _quadrature(self, group: str, index: np.ndarray, order: int, p: int, q: int) -> np.ndarray:
-        key = (group, order)
-        if key not in self._nodes:
-            u, w = _legendre(order)
-            a, c = self.A[index, None], self.C[index, None]
-            M = np.sqrt(a * c)
-            self._nodes[key] = (_Powers(np.broadcast_to(u, (index.size, order)).copy()),
-                                _Powers(1.0 / (u * a + M * (1.0 - u))),
-                                _Powers(1.0 / (u * c + M * (1.0 - u))), M * w)
-        up, ia, ic, wm = self._nodes[key]
-        integrand = ia(p) * ic(q) if p and q else (ia(p) if p else ic(q))
-        if p + q > 2:
-            integrand = integrand * up(p + q - 2)
-        return np.einsum("ij,ij->i", integrand, wm)
-
-    def _recursive(self, p: int, q: int) -> np.ndarray:
-        key = (p, q)
-        if key not in self._recursion:
-            a, c = self.A[self.far], self.C[self.far]
-            if q == 0:
-                value = a ** (1 - p) / (p - 1)
-            elif p == 0:
-                value = c ** (1 - q) / (q - 1)
-            elif p == q == 1:
-                value = np.log(c / a) / (c - a)
-            else:
-                value = (self._recursive(p, q - 1) - self._recursive(p - 1, q)) / (c - a)
-            self._recursion[key] = value
-        return self._recursion[key]
-
-    def value(self, p: int, q: int) -> np.ndarray:
-        if p < 0 or q < 0 or p + q < 2:
-            raise InputError(f"K({p}, {q}) diverges (needs p, q >= 0 and p + q >= 2)")
-        key = (p, q)
-        if key not in self._values:
-            out = np.empty(self.n)
-            if self.far.size:
-                out[self.far] = self._recursive(p, q)
-            if self.close.size:
-                order = 16 if p + q <= 12 else QUADRATURE_ORDER
-                out[self.close] = self._quadrature("close", self.close, order, p, q)
-            if self.middle.size:
-                out[self.middle] = self._quadrature("middle", self.middle, QUADRATURE_ORDER, p, q)
-            self._values[key] = out
-        return self._values[key]
-
-
 def k_integral(A, C, p: int, q: int) -> np.ndarray:
-    """``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for ``p, q >= 0``, ``p + q >= 2`` (see :class:`_KValues`).
+    """``K(p, q) = ∫_0^∞ (A+t)^{-p} (C+t)^{-q} dt`` for ``p, q >= 0``, ``p + q >= 2`` (see :class:`twoel.integrals.series.KValues`).
 
     Parameters
     ----------
@@ -189,7 +78,7 @@ def k_integral(A, C, p: int, q: int) -> np.ndarray:
     A, C = np.broadcast_arrays(np.asarray(A, dtype=float), np.asarray(C, dtype=float))
     if np.any(A <= 0) or np.any(C <= 0):
         raise InputError("K(p, q) needs positive A and C")
-    return _KValues(A, C).value(p, q).reshape(A.shape)
+    return KValues(A, C).value(p, q).reshape(A.shape)
 
 
 class PairIntegrals:
@@ -204,69 +93,42 @@ class PairIntegrals:
     def __init__(self, alpha, beta, gamma):
         alpha, beta, gamma = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (alpha, beta, gamma)))
         A, B, C = alpha + beta, beta + gamma, gamma + alpha
+        check_exponents(A, B, C)
         self.shape = A.shape
-        self.A, self.B, self.C = A, B, C
-        if np.any(A <= 0) or np.any(B <= 0) or np.any(C <= 0):
-            raise InputError("integral exponents must satisfy α+β > 0, β+γ > 0 and γ+α > 0")
-        self._inv = {name: _Powers(1.0 / x) for name, x in (("A", A), ("B", B), ("C", C))}
-        self._k: dict = {}
+        self.A, self.B, self.C = (x.reshape(-1) for x in (A, B, C))
+        self._series = MasterSeries(self.A, self.B, self.C)
+        self._inverse_square: dict = {}
         self._cache: dict = {}
 
     def __call__(self, a: int, b: int, c: int) -> np.ndarray:
         """``I(a, b, c)`` for every exponent triple; at most one index may be -2."""
         key = (a, b, c)
         if key not in self._cache:
-            self._cache[key] = self._compute(a, b, c)
+            self._cache[key] = self._compute(a, b, c).reshape(self.shape)
         return self._cache[key]
 
     def _compute(self, a: int, b: int, c: int) -> np.ndarray:
         if min(a, b, c) < -2 or sum(x == -2 for x in (a, b, c)) > 1:
             raise InputError(f"integral I({a},{b},{c}) diverges")
-        inv = self._inv
         if a == -2:
             return self._minus_two(b, c, "A", "B", "C")
         if b == -2:  # r1 <-> r2: (A, B, C) -> (A, C, B)
             return self._minus_two(a, c, "A", "C", "B")
         if c == -2:  # r1 <-> r12: (A, B, C) -> (B, A, C)
             return self._minus_two(b, a, "B", "A", "C")
-        ap, bp, cp = a + 1, b + 1, c + 1
-        total = np.zeros(self.shape)
-        for l1 in range(ap + 1):
-            l2 = ap - l1
-            for m1 in range(bp + 1):
-                m2 = bp - m1
-                fa = comb(l1 + m1, l1) * inv["A"](l1 + m1 + 1)
-                for n1 in range(cp + 1):
-                    n2 = cp - n1
-                    weight = comb(m2 + n1, n1) * comb(n2 + l2, l2)
-                    total += weight * fa * inv["B"](m2 + n1 + 1) * inv["C"](n2 + l2 + 1)
-        return SIXTEEN_PI_SQUARED * factorial(ap) * factorial(bp) * factorial(cp) * total
+        return self._series.integral(a, b, c)
 
     def _minus_two(self, b: int, c: int, first: str, free: str, third: str) -> np.ndarray:
         """``I(-2, b, c)`` with the -2 index on the coordinate whose exponents enter ``first``
         and ``third`` (the ``A`` and ``C`` of the formula) and ``free`` the remaining sum."""
-        bp, cp = b + 1, c + 1
-        inv_free = self._inv[free]
-        if (first, third) not in self._k:
-            self._k[(first, third)] = _KValues(getattr(self, first), getattr(self, third))
-        k = self._k[(first, third)]
-        total = np.zeros(self.shape)
-        for m1 in range(bp + 1):
-            m2 = bp - m1
-            for n1 in range(cp + 1):
-                n2 = cp - n1
-                total += (comb(m2 + n1, n1) * inv_free(m2 + n1 + 1)
-                          * k.value(m1 + 1, n2 + 1).reshape(self.shape))
-        return SIXTEEN_PI_SQUARED * factorial(bp) * factorial(cp) * total
-
-
-@lru_cache(maxsize=None)
-def _binomials(size: int) -> np.ndarray:
-    return np.array([[comb(i + j, i) for j in range(size)] for i in range(size)], dtype=float)
+        key = (first, free, third)
+        if key not in self._inverse_square:
+            self._inverse_square[key] = InverseSquareSeries(*(getattr(self, x) for x in key))
+        return self._inverse_square[key].integral(b, c)
 
 
 def inverse_square_table(alpha, beta, gamma, max_power: int) -> np.ndarray:
-    """``I(-2, b, c; α, β, γ)`` for ``-1 <= b, c <= max_power`` (the pair series as a table).
+    """``I(-2, b, c; α, β, γ)`` for ``-1 <= b, c <= max_power`` (see :class:`twoel.integrals.series.InverseSquareSeries`).
 
     Parameters
     ----------
@@ -281,21 +143,8 @@ def inverse_square_table(alpha, beta, gamma, max_power: int) -> np.ndarray:
     """
     alpha, beta, gamma = (np.atleast_1d(np.asarray(x, dtype=float)) for x in (alpha, beta, gamma))
     A, B, C = alpha + beta, beta + gamma, gamma + alpha
-    if np.any(A <= 0) or np.any(B <= 0) or np.any(C <= 0):
-        raise InputError("integral exponents must satisfy α+β > 0, β+γ > 0 and γ+α > 0")
-    L = max_power + 2
-    inv_b = _Powers(1.0 / B)
-    k = _KValues(A, C)
-    binom = _binomials(L)
-    # H[m2, n1] = C(m2+n1, n1) / B^(m2+n1+1),  G[m1, n2] = K(m1 + 1, n2 + 1)
-    H = np.stack([np.stack([binom[m, n] * inv_b(m + n + 1) for n in range(L)], -1) for m in range(L)], -2)
-    G = np.stack([np.stack([k.value(m + 1, n + 1) for n in range(L)], -1) for m in range(L)], -2)
-    out = np.zeros(H.shape)
-    for m2 in range(L):
-        for n1 in range(L):
-            out[:, m2:, n1:] += H[:, m2, n1, None, None] * G[:, : L - m2, : L - n1]
-    f = np.array([float(factorial(i)) for i in range(L)])
-    return SIXTEEN_PI_SQUARED * out * f[None, :, None] * f[None, None, :]
+    check_exponents(A, B, C)
+    return InverseSquareSeries(A, B, C).table(max_power)
 
 
 class ExponentTables:
@@ -303,7 +152,7 @@ class ExponentTables:
 
     Used when the powers differ between pairs (Hylleraas-type bases, few distinct sums).
     ``rows`` are the distinct summed exponent triples and ``index[n]`` the row of pair ``n``.
-    The tables (powers >= -1 from :func:`twoel.integrals.kernels.integral_table`, one power -2
+    The tables (powers >= -1 from :func:`twoel.integrals.series.integral_table`, one power -2
     from :func:`inverse_square_table` in each of the three positions) are built lazily and
     grown when a larger power is needed.
     """

@@ -23,8 +23,10 @@ import math
 
 import numpy as np
 
+from twoel.integrals.doubledouble import DD
 from twoel.integrals.generated import zero_power_kernels as _exponential
-from twoel.integrals.doubledouble import DD, two_sum
+from twoel.integrals.numbers import DOUBLE_DOUBLE
+from twoel.integrals.zero_power import columns, exponent_sums, kinetic_numerator
 
 NAMES = ("overlap", "kinetic", "nuclear", "repulsion")
 
@@ -33,26 +35,12 @@ NAMES = ("overlap", "kinetic", "nuclear", "repulsion")
 # double-double
 # ---------------------------------------------------------------------------------------------
 
-def _dd_sum4(x1, x2, y1, y2) -> DD:
-    s1, e1 = two_sum(x1, x2)
-    s2, e2 = two_sum(y1, y2)
-    return DD(s1, e1) + DD(s2, e2)
-
-
 def _dd_block(bra: np.ndarray, ket: np.ndarray):
     """Double-double overlap, kinetic, nuclear, repulsion for bra rows × ket columns (÷16π²)."""
-    a1, b1, g1 = (bra[:, k][:, None] for k in range(3))
-    a2, b2, g2 = (ket[:, k][None, :] for k in range(3))
-    shape = (bra.shape[0], ket.shape[0])
-    a1, b1, g1, a2, b2, g2 = (np.broadcast_to(x, shape) for x in (a1, b1, g1, a2, b2, g2))
-    A = _dd_sum4(a1, a2, b1, b2)
-    B = _dd_sum4(b1, b2, g1, g2)
-    C = _dd_sum4(g1, g2, a1, a2)
+    first, second = columns(bra, ket, DD)
+    A, B, C = exponent_sums(first, second)
     ov, nu, re, k1, k2 = _exponential.zero_power_integrals(A.reciprocal(), B.reciprocal(), C.reciprocal())
-    c0 = DD(a1) * DD(a2) + DD(b1) * DD(b2) + DD(g1) * DD(g2) * 2
-    c1 = DD(a1) * DD(g2) + DD(a2) * DD(g1)
-    c2 = DD(b1) * DD(g2) + DD(b2) * DD(g1)
-    kinetic = (c0 * ov * 2 + c1 * k1 + c2 * k2) * DD(0.25)
+    kinetic = kinetic_numerator(first, second, ov, k1, k2) * DD(0.25)
     return {"overlap": ov, "kinetic": kinetic, "nuclear": nu, "repulsion": re}
 
 
@@ -85,7 +73,7 @@ def dd_matrices(exponents: np.ndarray, sign: int, block: int | None = None) -> d
             value = direct[name] + exchange[name] * sign
             hi[name][start:stop, start:] = value.hi
             lo[name][start:stop, start:] = value.lo
-    factor = DD(16.0 * (math.pi * math.pi), 16.0 * _PI_SQUARED_LO)
+    factor = DOUBLE_DOUBLE.sixteen_pi_squared()
     lower = np.tril_indices(N, -1)
     out = {}
     for name in NAMES:
@@ -94,18 +82,6 @@ def dd_matrices(exponents: np.ndarray, sign: int, block: int | None = None) -> d
         l[lower] = l.T[lower]
         out[name] = DD(h, l) * factor
     return out
-
-
-def _pi_squared_lo() -> float:
-    """``π² - fl(π·π)`` so that 16π² is a double-double (mpmath, at import)."""
-    import mpmath
-
-    with mpmath.workdps(40):
-        return float(mpmath.pi ** 2 - mpmath.mpf(math.pi * math.pi))
-
-
-#: π² = fl(π·π) + _PI_SQUARED_LO to double-double accuracy
-_PI_SQUARED_LO = _pi_squared_lo()
 
 
 def dd_hamiltonian(matrices: dict[str, DD], Z: float) -> DD:
@@ -164,16 +140,11 @@ def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
     one = 1 << (P + Q)
     for exchanged, weight in ((False, 1), (True, sign)):
         ket = E[:, [1, 0, 2]] if exchanged else E
-        a1, b1, g1 = E[rows, 0], E[rows, 1], E[rows, 2]
-        a2, b2, g2 = ket[cols, 0], ket[cols, 1], ket[cols, 2]
-        ra = one // (a1 + a2 + b1 + b2)
-        rb = one // (b1 + b2 + g1 + g2)
-        rc = one // (g1 + g2 + a1 + a2)
-        ov, nu, re, k1, k2 = _exponential.zero_power_integrals_fixed(ra, rb, rc, P)
-        c0 = a1 * a2 + b1 * b2 + 2 * g1 * g2
-        c1 = a1 * g2 + a2 * g1
-        c2 = b1 * g2 + b2 * g1
-        kinetic = (2 * c0 * ov + c1 * k1 + c2 * k2) >> (2 * Q + 2)
+        first = (E[rows, 0], E[rows, 1], E[rows, 2])
+        second = (ket[cols, 0], ket[cols, 1], ket[cols, 2])
+        A, B, C = exponent_sums(first, second)
+        ov, nu, re, k1, k2 = _exponential.zero_power_integrals_fixed(one // A, one // B, one // C, P)
+        kinetic = kinetic_numerator(first, second, ov, k1, k2) >> (2 * Q + 2)
         values = {"overlap": ov, "nuclear": nu, "repulsion": re, "kinetic": kinetic}
         for name, value in values.items():
             total[name] = value * weight if name not in total else total[name] + value * weight

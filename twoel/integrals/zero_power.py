@@ -42,25 +42,35 @@ def supports(operators: dict) -> bool:
     return True
 
 
-def pair_sums(bra: np.ndarray, ket: np.ndarray):
-    """Summed exponents ``(α, β, γ)`` of all pairs, each of shape ``(P, Q)``."""
-    return tuple(bra[:, k][:, None] + ket[:, k][None, :] for k in range(3))
+def columns(bra, ket, convert=np.asarray):
+    """``(α1, β1, γ1)`` of the bra rows as columns and ``(α2, β2, γ2)`` of the kets as rows,
+    each converted to the number type (identity for float64, :class:`~twoel.integrals.doubledouble.DD`
+    for double-double); they broadcast to the ``(P, Q)`` pair grid."""
+    return (tuple(convert(bra[:, k][:, None]) for k in range(3)),
+            tuple(convert(ket[:, k][None, :]) for k in range(3)))
 
 
-def _inverse_sums(alpha, beta, gamma):
-    return 1.0 / (alpha + beta), 1.0 / (beta + gamma), 1.0 / (gamma + alpha)
+def exponent_sums(first, second):
+    """``A = α+β``, ``B = β+γ``, ``C = γ+α`` of every pair of bra ``first = (α1, β1, γ1)`` and
+    ket ``second = (α2, β2, γ2)``, each formed as ``(x1 + x2) + (y1 + y2)`` (exact in
+    double-double and in fixed point)."""
+    (a1, b1, g1), (a2, b2, g2) = first, second
+    al, be, ga = a1 + a2, b1 + b2, g1 + g2
+    return al + be, be + ga, ga + al
 
 
-def kinetic_from_pieces(bra, ket, overlap, kinetic_1, kinetic_2):
-    """Kinetic matrix ½(∇1·∇1 + ∇2·∇2) from the generated pieces (all divided by 16π²).
+def kinetic_numerator(first, second, overlap, kinetic_1, kinetic_2):
+    """Four times the kinetic matrix ½(∇1·∇1 + ∇2·∇2) from the generated pieces.
 
-    ``T = ½(α1α2 + β1β2 + 2γ1γ2)·I000 + ¼(α1γ2 + α2γ1)·K1 + ¼(β1γ2 + β2γ1)·K2`` (see
-    :func:`twoel.integrals.symbolic.zero_power_forms`).
+    ``4T = 2(α1α2 + β1β2 + 2γ1γ2)·I000 + (α1γ2 + α2γ1)·K1 + (β1γ2 + β2γ1)·K2`` (see
+    :func:`twoel.integrals.symbolic.zero_power_forms`) for bra exponents ``first`` and ket
+    exponents ``second``.  Only ``+``, ``*`` and integer multiples are used, so the same line
+    serves float64, double-double and fixed point; the caller divides by 4 (a multiplication
+    by 0.25 or a shift).
     """
-    a1, b1, g1 = (bra[:, k][:, None] for k in range(3))
-    a2, b2, g2 = (ket[:, k][None, :] for k in range(3))
-    return (0.5 * (a1 * a2 + b1 * b2 + 2.0 * g1 * g2) * overlap
-            + 0.25 * (a1 * g2 + a2 * g1) * kinetic_1 + 0.25 * (b1 * g2 + b2 * g1) * kinetic_2)
+    (a1, b1, g1), (a2, b2, g2) = first, second
+    c0 = a1 * a2 + b1 * b2 + g1 * g2 * 2
+    return c0 * overlap * 2 + (a1 * g2 + a2 * g1) * kinetic_1 + (b1 * g2 + b2 * g1) * kinetic_2
 
 
 #: rows evaluated together (keeps the temporaries in cache)
@@ -82,8 +92,9 @@ def _normalized(spec):
 
 def _block_values(bra, ket, operators):
     """Operator values for one block of bra rows against the given ket columns."""
-    al, be, ga = pair_sums(bra, ket)
-    a, b, c = _inverse_sums(al, be, ga)
+    first, second = columns(bra, ket)
+    A, B, C = exponent_sums(first, second)
+    a, b, c = 1.0 / A, 1.0 / B, 1.0 / C
     pieces = None
     out = {}
     for name, spec in operators.items():
@@ -92,14 +103,14 @@ def _block_values(bra, ket, operators):
                 pieces = _exponential.zero_power_integrals(a, b, c)
             if spec == "kinetic":
                 ov, _nu, _re, k1, k2 = pieces
-                out[name] = kinetic_from_pieces(bra, ket, ov, k1, k2)
+                out[name] = 0.25 * kinetic_numerator(first, second, ov, k1, k2)
             else:
                 out[name] = pieces[_SHARED[spec]]
         else:
             value = 0.0
             for coefficient, shift in spec:
                 value = value + coefficient * _exponential.MONOMIALS[shift](a, b, c)
-            out[name] = np.broadcast_to(value, al.shape)
+            out[name] = np.broadcast_to(value, A.shape)
     return out
 
 
