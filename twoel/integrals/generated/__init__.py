@@ -19,7 +19,7 @@ Regenerate all files with ``python -m twoel.integrals.generate`` or some of them
 ``python -m twoel.integrals.generate kinetic_terms zero_power_kernels``.  Check that the files
 match their derivation, writing nothing, with ``python -m twoel.integrals.generate --check``
 (optionally naming targets): exit 0 if identical, 1 with a line naming the stale files.
-Measured on one core: about 0.2 s (``kinetic_terms``), 1-2 s (``zero_power_kernels``) and
-13-17 s (``state_terms``).  ``tests/integrals/test_generate.py`` runs the check (the
+Measured on one core: 0.1-0.4 s (``kinetic_terms``), 1-3 s (``zero_power_kernels``) and
+13-22 s (``state_terms``).  ``tests/integrals/test_generate.py`` runs the check (the
 ``state_terms`` target in the slow set).
 """
