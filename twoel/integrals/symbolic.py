@@ -12,11 +12,23 @@ r"""SymPy derivations behind the numeric kernels (run by the generator and by th
    ``I(a,b,c) = (-∂α)^(a+1)(-∂β)^(b+1)(-∂γ)^(c+1) I(-1,-1,-1)``, exactly, as a polynomial in the
    inverse pair sums (a route independent of the numeric kernels' series product); the test
    :func:`test_master_integral_derivation` checks it against direct ``sympy.diff`` too.
-3. :func:`kinetic_terms` expands the symmetric kinetic-energy integrand
-   ``½(∇1φ·∇1φ' + ∇2φ·∇2φ')`` of two primitives ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` into
-   monomials ``r1^p r2^q r12^s`` times polynomial coefficients, using
-   ``r̂1·r̂12 = (r1² + r12² - r2²)/(2 r1 r12)`` and ``r̂2·r̂21 = (r2² + r12² - r1²)/(2 r2 r12)``.
-   :func:`kinetic_source` renders them as Python; ``twoel/integrals/_kinetic.py`` is that output.
+3. :func:`primitive_derivatives` gives ``∇n g / g`` and ``∇n² g / g`` of a primitive
+   ``g = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` as vectors ``u0 r1 + u1 r2``:
+   ``∇1 g / g = (L1/r1 + L12/r12) r1 - (L12/r12) r2`` and
+   ``∇2 g / g = -(L12/r12) r1 + (L2/r2 + L12/r12) r2`` with ``L1 = i/r1 - α``,
+   ``L2 = j/r2 - β``, ``L12 = k/r12 - γ``;
+   ``∇1² g / g = -i/r1² + 2 L1/r1 - k/r12² + 2 L12/r12 + |∇1 g/g|²`` (and 1 <-> 2).
+   Scalar products use ``r1·r2 = (r1² + r2² - r12²)/2`` (:func:`dot`).
+4. :func:`kinetic_integrand` is the symmetric kinetic-energy integrand
+   ``½(∇1φ·∇1φ' + ∇2φ·∇2φ')`` of two primitives: the one derivation behind
+   ``generated/kinetic_terms.py`` (:func:`kinetic_terms`, :func:`kinetic_source`), the kinetic
+   pieces of ``generated/zero_power_kernels.py`` (:func:`zero_power_kinetic_pieces`) and, through
+   :func:`s_gradient_product`, the S terms of ``generated/state_terms.py``
+   (:mod:`twoel.integrals.symbolic_states`).  :func:`monomial_terms` expands any such integrand
+   into ``r1^p r2^q r12^s`` times polynomial coefficients; :func:`term_function_lines` renders a
+   term list as Python.
+5. :func:`inverse_sum_form` and :func:`zero_power_source`: the integrals of purely exponential
+   primitives as integer polynomials in ``1/(α+β)``, ``1/(β+γ)``, ``1/(γ+α)``.
 """
 
 from __future__ import annotations
@@ -79,38 +91,95 @@ def exact_value(a: int, b: int, c: int, alpha_value, beta_value, gamma_value) ->
     return sp.Rational(closed_form_polynomial(a, b, c).eval({u: 1 / A, v: 1 / B, w: 1 / C}))
 
 
-# symbols of the bra primitive (index 1) and the ket primitive (index 2)
+# --- correlated primitives: gradients and their monomial expansion --------------------------
+#: symbols of the bra primitive (index 1) and the ket primitive (index 2): powers, then exponents
 BRA = sp.symbols("i1 j1 k1 a1 b1 g1")
 KET = sp.symbols("i2 j2 k2 a2 b2 g2")
+#: argument list of every generated term function
+TERM_ARGUMENTS = ", ".join(str(symbol) for symbol in BRA + KET)
+
+
+def dot(u, v) -> sp.Expr:
+    """``u·v`` for vectors ``u = u0 r1 + u1 r2`` given as coefficient pairs ``(u0, u1)``.
+
+    Uses ``r1·r1 = r1²``, ``r2·r2 = r2²`` and ``r1·r2 = (r1² + r2² - r12²)/2``.
+    """
+    d12 = (r1**2 + r2**2 - r12**2) / 2
+    return u[0] * v[0] * r1**2 + (u[0] * v[1] + u[1] * v[0]) * d12 + u[1] * v[1] * r2**2
+
+
+@lru_cache(maxsize=None)
+def primitive_derivatives(symbols: tuple) -> tuple[dict, dict]:
+    """Gradients and Laplacians of ``g = r1^i r2^j r12^k e^{-a r1 - b r2 - g r12}``, divided by ``g``.
+
+    Parameters
+    ----------
+    symbols : tuple
+        ``(i, j, k, a, b, g)``: :data:`BRA` or :data:`KET`.
+
+    Returns
+    -------
+    (dict, dict)
+        ``{1: ∇1 g/g, 2: ∇2 g/g}`` as coefficient pairs on ``(r1, r2)`` (see :func:`dot`), and
+        ``{1: ∇1² g/g, 2: ∇2² g/g}`` (units: bohr⁻¹ and bohr⁻² once the symbols have values).
+    """
+    i, j, k, a, b, g = symbols
+    L1, L2, L12 = i / r1 - a, j / r2 - b, k / r12 - g
+    grad1 = (L1 / r1 + L12 / r12, -L12 / r12)
+    grad2 = (-L12 / r12, L2 / r2 + L12 / r12)
+    lap1 = -i / r1**2 + 2 * L1 / r1 - k / r12**2 + 2 * L12 / r12 + dot(grad1, grad1)
+    lap2 = -j / r2**2 + 2 * L2 / r2 - k / r12**2 + 2 * L12 / r12 + dot(grad2, grad2)
+    return {1: grad1, 2: grad2}, {1: lap1, 2: lap2}
+
+
+def s_gradient_product(n: int, m: int) -> sp.Expr:
+    """``∇n g_bra · ∇m g_ket / (g_bra g_ket)`` for S (scalar) primitives, ``n, m`` in ``{1, 2}``."""
+    return dot(primitive_derivatives(BRA)[0][n], primitive_derivatives(KET)[0][m])
+
+
+def kinetic_integrand() -> sp.Expr:
+    """The symmetric kinetic integrand ``½(∇1g·∇1g' + ∇2g·∇2g') / (g g')`` of two S primitives.
+
+    This is the one derivation of the kinetic energy: :func:`kinetic_terms` expands it, the
+    zero-power pieces of :func:`zero_power_forms` are its value at zero powers, and the S state
+    terms ``s_grad11``/``s_grad22`` of :mod:`twoel.integrals.symbolic_states` are its two halves.
+    """
+    return (s_gradient_product(1, 1) + s_gradient_product(2, 2)) / 2
+
+
+def monomial_terms(expr: sp.Expr, lift: int = 4) -> tuple[tuple[tuple[int, int, int], sp.Expr], ...]:
+    """Expand ``expr`` into ``((p, q, s), coefficient)`` with ``expr = Σ coefficient r1^p r2^q r12^s``.
+
+    ``lift`` must be at least the largest inverse power present (SymPy raises otherwise); the
+    terms come sorted by shift, each coefficient factored.
+    """
+    poly = sp.Poly(sp.expand(expr * (r1 * r2 * r12) ** lift), r1, r2, r12)
+    return tuple(((p - lift, q - lift, s - lift), sp.factor(coefficient))
+                 for (p, q, s), coefficient in sorted(poly.terms()))
+
+
+def term_function_lines(name: str, terms, doc: str | None = None) -> list[str]:
+    """Python lines of ``def name(i1, ..., g2)`` returning the term list ``terms``."""
+    lines = [f"def {name}({TERM_ARGUMENTS}):"]
+    if doc:
+        lines.append(f'    """{doc}"""')
+    lines.append("    return [")
+    lines += [f"        ({shift!r}, {sp.pycode(coefficient)})," for shift, coefficient in terms]
+    return lines + ["    ]", ""]
 
 
 @lru_cache(maxsize=None)
 def kinetic_terms() -> tuple[tuple[tuple[int, int, int], sp.Expr], ...]:
-    """Kinetic integrand ``½(∇1φ·∇1φ' + ∇2φ·∇2φ') / (φ φ')`` as ``((p, q, s), coefficient)``.
+    """:func:`kinetic_integrand` as ``((p, q, s), coefficient)``.
 
     The integral of the kinetic matrix element is then
     ``Σ coefficient · I(i1+i2+p, j1+j2+q, k1+k2+s; a1+a2, b1+b2, g1+g2)``.
     """
-    i1, j1, k1, a1, b1, g1 = BRA
-    i2, j2, k2, a2, b2, g2 = KET
-    d1 = (i1 / r1 - a1, j1 / r2 - b1, k1 / r12 - g1)  # logarithmic derivatives of the bra
-    d2 = (i2 / r1 - a2, j2 / r2 - b2, k2 / r12 - g2)
-    cos_1_12 = (r1**2 + r12**2 - r2**2) / (2 * r1 * r12)
-    cos_2_21 = (r2**2 + r12**2 - r1**2) / (2 * r2 * r12)
-    integrand = sp.Rational(1, 2) * (
-        d1[0] * d2[0] + d1[1] * d2[1] + 2 * d1[2] * d2[2]
-        + (d1[0] * d2[2] + d1[2] * d2[0]) * cos_1_12
-        + (d1[1] * d2[2] + d1[2] * d2[1]) * cos_2_21
-    )
-    poly = sp.Poly(sp.expand(integrand * r1**3 * r2**3 * r12**3), r1, r2, r12)
-    terms = []
-    for (p, q, s), coefficient in sorted(poly.terms()):
-        terms.append(((p - 3, q - 3, s - 3), sp.factor(coefficient)))
-    return tuple(terms)
+    return monomial_terms(kinetic_integrand())
 
 
 def kinetic_source() -> str:
-    """Python source of ``twoel/integrals/_kinetic.py`` (deterministic)."""
+    """Python source of ``twoel/integrals/generated/kinetic_terms.py`` (deterministic)."""
     lines = [
         '"""Kinetic-energy integrand terms, generated by twoel.integrals.symbolic.kinetic_source.',
         "",
@@ -120,13 +189,9 @@ def kinetic_source() -> str:
         '"""',
         "",
         "",
-        "def kinetic_terms(i1, j1, k1, a1, b1, g1, i2, j2, k2, a2, b2, g2):",
-        '    """Return ``[((p, q, s), coefficient), ...]``; arguments may be NumPy arrays."""',
-        "    return [",
     ]
-    for shift, coefficient in kinetic_terms():
-        lines.append(f"        ({shift!r}, {sp.pycode(coefficient)}),")
-    lines += ["    ]", ""]
+    lines += term_function_lines("kinetic_terms", kinetic_terms(),
+                                 "Return ``[((p, q, s), coefficient), ...]``; arguments may be NumPy arrays.")
     return "\n".join(lines)
 
 
@@ -159,22 +224,58 @@ def inverse_sum_form(a: int, b: int, c: int) -> sp.Expr:
     return poly.as_expr()
 
 
+#: prefactors (bra exponents ``a1, b1, g1``, ket ``a2, b2, g2``) of the zero-power kinetic pieces;
+#: :func:`twoel.integrals.zero_power.kinetic_from_pieces` combines the pieces with these
+ZERO_POWER_KINETIC_PREFACTORS = {
+    "overlap": (BRA[3] * KET[3] + BRA[4] * KET[4] + 2 * BRA[5] * KET[5]) / 2,
+    "kinetic_1": (BRA[3] * KET[5] + KET[3] * BRA[5]) / 4,
+    "kinetic_2": (BRA[4] * KET[5] + KET[4] * BRA[5]) / 4,
+}
+
+
+@lru_cache(maxsize=None)
+def zero_power_kinetic_pieces() -> dict[str, sp.Expr]:
+    """:func:`kinetic_terms` at zero powers, split as ``Σ prefactor · piece`` (pieces over 16π²).
+
+    Each term's coefficient at ``i = j = k = 0`` must be ``±`` one of
+    :data:`ZERO_POWER_KINETIC_PREFACTORS` (else :class:`ArithmeticError`); the piece of a
+    prefactor is the signed sum of :func:`inverse_sum_form` over its shifts.
+    """
+    zero = {symbol: 0 for symbol in BRA[:3] + KET[:3]}
+    pieces = {name: sp.Integer(0) for name in ZERO_POWER_KINETIC_PREFACTORS}
+    for shift, coefficient in kinetic_terms():
+        coefficient = sp.expand(coefficient.subs(zero))
+        if coefficient == 0:
+            continue
+        for name, prefactor in ZERO_POWER_KINETIC_PREFACTORS.items():
+            ratio = sp.cancel(coefficient / prefactor)
+            if ratio.is_Number:
+                pieces[name] += ratio * inverse_sum_form(*shift)
+                break
+        else:
+            raise ArithmeticError(f"zero-power kinetic coefficient {coefficient} of {shift} has no piece")
+    return {name: sp.expand(piece) for name, piece in pieces.items()}
+
+
 def zero_power_forms() -> dict[str, sp.Expr]:
     """The combinations a zero-power basis uses, each divided by 16π².
 
-    ``overlap = I(0,0,0)``, ``nuclear = I(-1,0,0) + I(0,-1,0)``, ``repulsion = I(0,0,-1)``,
+    ``overlap = I(0,0,0)``, ``nuclear = I(-1,0,0) + I(0,-1,0)``, ``repulsion = I(0,0,-1)``, and the
+    kinetic pieces of :func:`zero_power_kinetic_pieces`, which come out as
     ``kinetic_1 = I(-1,0,1) + I(1,0,-1) - I(-1,2,-1)`` and
-    ``kinetic_2 = I(0,-1,1) + I(0,1,-1) - I(2,-1,-1)``; with all powers zero the kinetic element
-    of :func:`kinetic_terms` is
-    ``½(α1α2 + β1β2 + 2γ1γ2)·overlap + ¼(α1γ2 + α2γ1)·kinetic_1 + ¼(β1γ2 + β2γ1)·kinetic_2``.
+    ``kinetic_2 = I(0,-1,1) + I(0,1,-1) - I(2,-1,-1)``: with all powers zero the kinetic element
+    is ``½(α1α2 + β1β2 + 2γ1γ2)·overlap + ¼(α1γ2 + α2γ1)·kinetic_1 + ¼(β1γ2 + β2γ1)·kinetic_2``.
     """
     f = inverse_sum_form
+    kinetic = zero_power_kinetic_pieces()
+    if kinetic["overlap"] != f(0, 0, 0):
+        raise ArithmeticError("the zero-power kinetic element is not a multiple of the overlap")
     return {
         "overlap": f(0, 0, 0),
         "nuclear": sp.expand(f(-1, 0, 0) + f(0, -1, 0)),
         "repulsion": f(0, 0, -1),
-        "kinetic_1": sp.expand(f(-1, 0, 1) + f(1, 0, -1) - f(-1, 2, -1)),
-        "kinetic_2": sp.expand(f(0, -1, 1) + f(0, 1, -1) - f(2, -1, -1)),
+        "kinetic_1": kinetic["kinetic_1"],
+        "kinetic_2": kinetic["kinetic_2"],
     }
 
 
@@ -208,8 +309,9 @@ def _sum_code(expr: sp.Expr, render) -> str:
     return text
 
 
-def _wrap(expr: sp.Expr) -> str:
-    text = _product_code(expr)
+def _wrap(expr: sp.Expr, render=None) -> str:
+    """``render(expr)`` (default :func:`_product_code`), parenthesized if ``expr`` is a sum."""
+    text = (render or _product_code)(expr)
     return f"({text})" if expr.is_Add else text
 
 
@@ -226,15 +328,15 @@ def _fixed_code(expr: sp.Expr) -> str:
         raise ArithmeticError("bare integer in a fixed-point expression")  # pragma: no cover
     if expr.is_Pow:
         base, exponent = expr.args
-        return _fixed_product([_fixed_wrap(base)] * int(exponent))
+        return _fixed_product([_wrap(base, _fixed_code)] * int(exponent))
     if expr.is_Mul:
         coefficient, rest = expr.as_coeff_Mul()
         factors = []
         for arg in sorted(sp.Mul.make_args(rest), key=sp.default_sort_key):
             if arg.is_Pow:
-                factors.extend([_fixed_wrap(arg.args[0])] * int(arg.args[1]))
+                factors.extend([_wrap(arg.args[0], _fixed_code)] * int(arg.args[1]))
             else:
-                factors.append(_fixed_wrap(arg))
+                factors.append(_wrap(arg, _fixed_code))
         text = _fixed_product(factors)
         if coefficient == 1:
             return text
@@ -246,11 +348,6 @@ def _fixed_code(expr: sp.Expr) -> str:
     raise ArithmeticError(f"cannot render {expr!r}")  # pragma: no cover
 
 
-def _fixed_wrap(expr: sp.Expr) -> str:
-    text = _fixed_code(expr)
-    return f"({text})" if expr.is_Add else text
-
-
 def _fixed_product(factors: list[str]) -> str:
     text = factors[0]
     for factor in factors[1:]:
@@ -259,7 +356,7 @@ def _fixed_product(factors: list[str]) -> str:
 
 
 def zero_power_source() -> str:
-    """Python source of ``twoel/integrals/_exponential.py`` (deterministic)."""
+    """Python source of ``twoel/integrals/generated/zero_power_kernels.py`` (deterministic)."""
     forms = zero_power_forms()
     names = list(forms)
     replacements, reduced = sp.cse([sp.factor(forms[n]) for n in names],

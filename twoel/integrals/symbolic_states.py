@@ -20,16 +20,14 @@ Angular reduction
     elements of the M = 0 functions are exactly these averaged integrands integrated with the
     Hylleraas volume element ``8π² r1 r2 r12 dr1 dr2 dr12``.
 
-Gradients
-    ``∇1 g / g = (L1/r1 + L12/r12) r1 - (L12/r12) r2`` and
-    ``∇2 g / g = -(L12/r12) r1 + (L2/r2 + L12/r12) r2`` with ``L1 = i/r1 - α``,
-    ``L2 = j/r2 - β``, ``L12 = k/r12 - γ``; ``∇n (z_e g) = δ_ne ẑ g + z_e ∇n g``.
+Gradients and Laplacians
+    Those of the scalar part come from :func:`twoel.integrals.symbolic.primitive_derivatives`
+    (the same derivation as the kinetic terms); the angular prefactor adds
+    ``∇n (z_e g) = δ_ne ẑ g + z_e ∇n g`` and ``∇n²(z_e g) = z_e ∇n² g + 2 δ_ne ∂g/∂z_n``.
+    The Laplacian forms are used only to check the symmetric gradient forms (see the tests).
 
-Laplacians (used only to check the symmetric gradient forms, see the tests)
-    ``∇1² g / g = -i/r1² + 2 L1/r1 - k/r12² + 2 L12/r12 + |∇1 g/g|²`` (and 1 <-> 2), and
-    ``∇n²(z_e g) = z_e ∇n² g + 2 δ_ne ∂g/∂z_n``.
-
-:func:`generated_source` renders all term lists as Python; ``_state_terms.py`` is its output.
+:func:`generated_source` renders all term lists as Python; ``generated/state_terms.py`` is its
+output.
 """
 
 from __future__ import annotations
@@ -38,108 +36,79 @@ from functools import lru_cache
 
 import sympy as sp
 
-r1, r2, r12 = sp.symbols("r1 r2 r12", positive=True)
-BRA = sp.symbols("i1 j1 k1 a1 b1 g1")
-KET = sp.symbols("i2 j2 k2 a2 b2 g2")
+from twoel.integrals.symbolic import (BRA, KET, dot, monomial_terms,
+                                      primitive_derivatives, r1, r2, r12, s_gradient_product,
+                                      term_function_lines)
+
+__all__ = ["BRA", "KET", "P_PAIRS", "r1", "r2", "r12", "s_gradient_product", "p_gradient_product",
+           "p_angular", "s_laplacian", "p_laplacian", "s_laplacian_product", "p_laplacian_product",
+           "term_lists", "generated_source"]
 
 #: electron whose z coordinate multiplies the bra and the ket of each P pair type
 P_PAIRS = {"same": (1, 1), "cross": (1, 2)}
-
-
-def _dot(u, v):
-    """``u·v`` for vectors ``u = u0 r1 + u1 r2`` given as coefficient pairs."""
-    d12 = (r1**2 + r2**2 - r12**2) / 2
-    return u[0] * v[0] * r1**2 + (u[0] * v[1] + u[1] * v[0]) * d12 + u[1] * v[1] * r2**2
-
-
-def _gradients(symbols):
-    i, j, k, a, b, g = symbols
-    L1, L2, L12 = i / r1 - a, j / r2 - b, k / r12 - g
-    grad1 = (L1 / r1 + L12 / r12, -L12 / r12)
-    grad2 = (-L12 / r12, L2 / r2 + L12 / r12)
-    lap1 = -i / r1**2 + 2 * L1 / r1 - k / r12**2 + 2 * L12 / r12 + _dot(grad1, grad1)
-    lap2 = -j / r2**2 + 2 * L2 / r2 - k / r12**2 + 2 * L12 / r12 + _dot(grad2, grad2)
-    return {1: grad1, 2: grad2}, {1: lap1, 2: lap2}
 
 
 def _unit(e):
     return (1, 0) if e == 1 else (0, 1)
 
 
-def s_gradient_product(n: int, m: int) -> sp.Expr:
-    """``∇n χ_bra · ∇m χ_ket / (g_bra g_ket)`` for S primitives."""
-    ga, _ = _gradients(BRA)
-    gb, _ = _gradients(KET)
-    return _dot(ga[n], gb[m])
-
-
 def p_gradient_product(n: int, m: int, ea: int, eb: int) -> sp.Expr:
     """Rotationally averaged ``∇n(z_ea g_bra) · ∇m(z_eb g_ket) / (g_bra g_ket)``."""
-    ga, _ = _gradients(BRA)
-    gb, _ = _gradients(KET)
+    ga, _ = primitive_derivatives(BRA)
+    gb, _ = primitive_derivatives(KET)
     ua, ub = _unit(ea), _unit(eb)
     expr = sp.Integer(1) if (n == ea and m == eb) else sp.Integer(0)
     if n == ea:
-        expr += _dot(ub, gb[m]) / 3
+        expr += dot(ub, gb[m]) / 3
     if m == eb:
-        expr += _dot(ua, ga[n]) / 3
-    expr += _dot(ua, ub) * _dot(ga[n], gb[m]) / 3
+        expr += dot(ua, ga[n]) / 3
+    expr += dot(ua, ub) * dot(ga[n], gb[m]) / 3
     return expr
 
 
 def p_angular(ea: int, eb: int) -> sp.Expr:
     """Rotational average of ``z_ea z_eb``: the factor multiplying any scalar operator."""
-    return _dot(_unit(ea), _unit(eb)) / 3
+    return dot(_unit(ea), _unit(eb)) / 3
 
 
 def s_laplacian() -> sp.Expr:
     """``g_bra (-½ (∇1² + ∇2²)) g_ket / (g_bra g_ket)`` (Laplacian form, S)."""
-    _, lap = _gradients(KET)
+    _, lap = primitive_derivatives(KET)
     return -(lap[1] + lap[2]) / 2
 
 
 def p_laplacian(ea: int, eb: int) -> sp.Expr:
     """Averaged ``z_ea g_bra (-½ ∇²)(z_eb g_ket) / (g_bra g_ket)`` (Laplacian form, P)."""
-    grad, lap = _gradients(KET)
+    grad, lap = primitive_derivatives(KET)
     ua, ub = _unit(ea), _unit(eb)
-    value = _dot(ua, ub) * (lap[1] + lap[2]) / 3 + 2 * _dot(ua, grad[eb]) / 3
+    value = dot(ua, ub) * (lap[1] + lap[2]) / 3 + 2 * dot(ua, grad[eb]) / 3
     return -value / 2
 
 
 def s_laplacian_product() -> sp.Expr:
     """Symmetrized ``(∇1² g_bra)(∇2² g_ket) / (g_bra g_ket)`` (for ``⟨p1² p2²⟩``, S)."""
-    _, la = _gradients(BRA)
-    _, lb = _gradients(KET)
+    _, la = primitive_derivatives(BRA)
+    _, lb = primitive_derivatives(KET)
     return (la[1] * lb[2] + la[2] * lb[1]) / 2
 
 
 def p_laplacian_product(ea: int, eb: int) -> sp.Expr:
     """Averaged, symmetrized ``∇1²(z_ea g_bra) ∇2²(z_eb g_ket) / (g_bra g_ket)`` (P)."""
-    ga, la = _gradients(BRA)
-    gb, lb = _gradients(KET)
+    ga, la = primitive_derivatives(BRA)
+    gb, lb = primitive_derivatives(KET)
     ua, ub = _unit(ea), _unit(eb)
 
     def one(n, m):
-        value = _dot(ua, ub) * la[n] * lb[m] / 3
+        value = dot(ua, ub) * la[n] * lb[m] / 3
         if m == eb:
-            value += 2 * _dot(ua, gb[m]) * la[n] / 3
+            value += 2 * dot(ua, gb[m]) * la[n] / 3
         if n == ea:
-            value += 2 * _dot(ub, ga[n]) * lb[m] / 3
+            value += 2 * dot(ub, ga[n]) * lb[m] / 3
         if n == ea and m == eb:
-            value += 4 * _dot(ga[n], gb[m]) / 3
+            value += 4 * dot(ga[n], gb[m]) / 3
         return value
 
     return (one(1, 2) + one(2, 1)) / 2
-
-
-def _monomials(expr: sp.Expr, lift: int = 4) -> tuple:
-    poly = sp.Poly(sp.expand(expr * (r1 * r2 * r12) ** lift), r1, r2, r12)
-    terms = []
-    for (p, q, s), coefficient in sorted(poly.terms()):
-        coefficient = sp.factor(coefficient)
-        if coefficient != 0:
-            terms.append(((p - lift, q - lift, s - lift), coefficient))
-    return tuple(terms)
 
 
 @lru_cache(maxsize=None)
@@ -152,25 +121,25 @@ def term_lists() -> dict[str, tuple]:
     ``z1``) and ``cross`` (bra ``z1``, ket ``z2``).
     """
     out = {
-        "s_grad11": _monomials(s_gradient_product(1, 1)),
-        "s_grad22": _monomials(s_gradient_product(2, 2)),
-        "s_grad12": _monomials((s_gradient_product(1, 2) + s_gradient_product(2, 1)) / 2),
-        "s_laplacian": _monomials(s_laplacian()),
-        "s_lap1lap2": _monomials(s_laplacian_product()),
+        "s_grad11": monomial_terms(s_gradient_product(1, 1)),
+        "s_grad22": monomial_terms(s_gradient_product(2, 2)),
+        "s_grad12": monomial_terms((s_gradient_product(1, 2) + s_gradient_product(2, 1)) / 2),
+        "s_laplacian": monomial_terms(s_laplacian()),
+        "s_lap1lap2": monomial_terms(s_laplacian_product()),
     }
     for pair, (ea, eb) in P_PAIRS.items():
-        out[f"p_{pair}_angular"] = _monomials(p_angular(ea, eb))
-        out[f"p_{pair}_grad11"] = _monomials(p_gradient_product(1, 1, ea, eb))
-        out[f"p_{pair}_grad22"] = _monomials(p_gradient_product(2, 2, ea, eb))
-        out[f"p_{pair}_grad12"] = _monomials(
+        out[f"p_{pair}_angular"] = monomial_terms(p_angular(ea, eb))
+        out[f"p_{pair}_grad11"] = monomial_terms(p_gradient_product(1, 1, ea, eb))
+        out[f"p_{pair}_grad22"] = monomial_terms(p_gradient_product(2, 2, ea, eb))
+        out[f"p_{pair}_grad12"] = monomial_terms(
             (p_gradient_product(1, 2, ea, eb) + p_gradient_product(2, 1, ea, eb)) / 2)
-        out[f"p_{pair}_laplacian"] = _monomials(p_laplacian(ea, eb))
-        out[f"p_{pair}_lap1lap2"] = _monomials(p_laplacian_product(ea, eb))
+        out[f"p_{pair}_laplacian"] = monomial_terms(p_laplacian(ea, eb))
+        out[f"p_{pair}_lap1lap2"] = monomial_terms(p_laplacian_product(ea, eb))
     return out
 
 
 def generated_source() -> str:
-    """Python source of ``twoel/integrals/_state_terms.py`` (deterministic)."""
+    """Python source of ``twoel/integrals/generated/state_terms.py`` (deterministic)."""
     lines = [
         '"""Gradient and angular integrand terms for S and P correlated bases.',
         "",
@@ -182,12 +151,8 @@ def generated_source() -> str:
         '"""',
         "",
     ]
-    args = "i1, j1, k1, a1, b1, g1, i2, j2, k2, a2, b2, g2"
     for name, terms in term_lists().items():
-        lines += ["", f"def {name}({args}):", "    return ["]
-        for shift, coefficient in terms:
-            lines.append(f"        ({shift!r}, {sp.pycode(coefficient)}),")
-        lines += ["    ]", ""]
+        lines += [""] + term_function_lines(name, terms)
     lines.append("")
     lines.append("TERMS = {" + ", ".join(f"{n!r}: {n}" for n in term_lists()) + "}")
     lines.append("")
