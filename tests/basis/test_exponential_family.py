@@ -9,8 +9,7 @@ import pytest
 import twoel
 from twoel.basis import exponential, exponential_boxes, get_family
 from twoel.errors import InputError, UnsupportedError
-from twoel.integrals import symbolic, zero_power
-from twoel.integrals.generate import ZERO_POWER_PATH
+from twoel.integrals import zero_power
 from twoel.integrals.kernels import integral
 from twoel.integrals.pairs import primitive_matrices
 from twoel.basis.correlated import HAMILTONIAN_OPERATORS, CorrelatedBasis, operator_matrices, primitive_operator_matrices
@@ -20,10 +19,6 @@ from twoel.system import Ion, State
 HE_GROUND = -2.903724377034119598311159
 # G. W. F. Drake, Springer Handbook of Atomic, Molecular and Optical Physics (2006), ch. 11 (from memory)
 HE_2_3S = -2.175229378236791
-
-
-def test_generated_module_matches_regeneration():
-    assert ZERO_POWER_PATH.read_text() == symbolic.zero_power_source()
 
 
 @pytest.mark.parametrize("shift", [(0, 0, 0), (-1, 0, 0), (0, 0, -1), (1, 0, 0), (0, 0, 2)])

@@ -9,7 +9,6 @@ import sympy as sp
 
 from twoel.integrals import integral, integral_table
 from twoel.integrals import symbolic
-from twoel.integrals.generate import KINETIC_PATH
 
 
 def test_master_integral_derivation():
@@ -69,10 +68,6 @@ def test_hydrogenic_closed_forms():
     norm = integral(0, 0, 0, 2 * zeta, 2 * zeta, 0.0)
     assert norm == pytest.approx((math.pi / zeta**3) ** 2, rel=1e-14)
     assert integral(0, 0, -1, 2 * zeta, 2 * zeta, 0.0) / norm == pytest.approx(5 * zeta / 8, rel=1e-14)
-
-
-def test_generated_kinetic_module_matches_derivation():
-    assert KINETIC_PATH.read_text() == symbolic.kinetic_source()
 
 
 def test_bad_powers_raise():

@@ -34,8 +34,8 @@ Operators are lists of *pieces* ``(integrand, weight)``:
 
 A bare monomial list ``[(coefficient, (da, db, dc)), ...]`` means ``[("unit", list)]`` and the
 string ``"kinetic"`` means ``[("kinetic", [(1.0, (0, 0, 0))])]``.  The integrands are the SymPy
-derivations of :mod:`twoel.integrals.symbolic_states` (generated ``_state_terms.py``) and
-:mod:`twoel.integrals.symbolic` (generated ``_kinetic.py``).  Basis functions are
+derivations of :mod:`twoel.integrals.symbolic` and :mod:`twoel.integrals.symbolic_states`
+(generated ``generated/kinetic_terms.py`` and ``generated/state_terms.py``).  Basis functions are
 ``(1 ± P12)`` applied to the primitives (times the contraction, if any); as in
 :mod:`twoel.basis.correlated` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
 is dropped.

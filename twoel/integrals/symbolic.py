@@ -225,7 +225,7 @@ def inverse_sum_form(a: int, b: int, c: int) -> sp.Expr:
 
 
 #: prefactors (bra exponents ``a1, b1, g1``, ket ``a2, b2, g2``) of the zero-power kinetic pieces;
-#: :func:`twoel.integrals.zero_power.kinetic_from_pieces` combines the pieces with these
+#: :func:`twoel.integrals.zero_power.kinetic_numerator` combines the pieces with four times these
 ZERO_POWER_KINETIC_PREFACTORS = {
     "overlap": (BRA[3] * KET[3] + BRA[4] * KET[4] + 2 * BRA[5] * KET[5]) / 2,
     "kinetic_1": (BRA[3] * KET[5] + KET[3] * BRA[5]) / 4,
