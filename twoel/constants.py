@@ -40,25 +40,18 @@ def _edition() -> str:
 
 CODATA_EDITION = _edition()
 
-HARTREE_EV = _codata("Hartree energy in eV")
-HARTREE_J = _codata("Hartree energy")
-HARTREE_HZ = _codata("hartree-hertz relationship")
-HARTREE_INVERSE_M = _codata("hartree-inverse meter relationship")
-FINE_STRUCTURE = _codata("fine-structure constant")
-ELECTRON_MASS_U = _codata("electron mass in u")
-PROTON_ELECTRON_MASS_RATIO = _codata("proton-electron mass ratio")
-ELECTRON_G_FACTOR = _codata("electron g factor")
-AVOGADRO = _codata("Avogadro constant")
-BOHR_RADIUS_M = _codata("Bohr radius")
-SPEED_OF_LIGHT = _codata("speed of light in vacuum")
-RYDBERG_INVERSE_M = _codata("Rydberg constant")
-
-#: all constants used, for provenance records
-ALL = (
-    HARTREE_EV, HARTREE_J, HARTREE_HZ, HARTREE_INVERSE_M, FINE_STRUCTURE, ELECTRON_MASS_U,
-    PROTON_ELECTRON_MASS_RATIO, ELECTRON_G_FACTOR, AVOGADRO, BOHR_RADIUS_M, SPEED_OF_LIGHT,
-    RYDBERG_INVERSE_M,
+#: CODATA keys of every constant used, in the order of the names below (and of ``ALL``)
+_KEYS = (
+    "Hartree energy in eV", "Hartree energy", "hartree-hertz relationship",
+    "hartree-inverse meter relationship", "fine-structure constant", "electron mass in u",
+    "proton-electron mass ratio", "electron g factor", "Avogadro constant", "Bohr radius",
+    "speed of light in vacuum", "Rydberg constant",
 )
+#: all constants used, for provenance records
+ALL = tuple(_codata(key) for key in _KEYS)
+(HARTREE_EV, HARTREE_J, HARTREE_HZ, HARTREE_INVERSE_M, FINE_STRUCTURE, ELECTRON_MASS_U,
+ PROTON_ELECTRON_MASS_RATIO, ELECTRON_G_FACTOR, AVOGADRO, BOHR_RADIUS_M, SPEED_OF_LIGHT,
+ RYDBERG_INVERSE_M) = ALL
 
 
 def provenance() -> dict:

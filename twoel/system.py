@@ -16,36 +16,25 @@ from dataclasses import dataclass
 from twoel.errors import InputError
 
 #: element symbols and names for Z = 1..118
-_ELEMENTS = (
-    ("H", "hydrogen"), ("He", "helium"), ("Li", "lithium"), ("Be", "beryllium"), ("B", "boron"),
-    ("C", "carbon"), ("N", "nitrogen"), ("O", "oxygen"), ("F", "fluorine"), ("Ne", "neon"),
-    ("Na", "sodium"), ("Mg", "magnesium"), ("Al", "aluminium"), ("Si", "silicon"),
-    ("P", "phosphorus"), ("S", "sulfur"), ("Cl", "chlorine"), ("Ar", "argon"),
-    ("K", "potassium"), ("Ca", "calcium"), ("Sc", "scandium"), ("Ti", "titanium"),
-    ("V", "vanadium"), ("Cr", "chromium"), ("Mn", "manganese"), ("Fe", "iron"), ("Co", "cobalt"),
-    ("Ni", "nickel"), ("Cu", "copper"), ("Zn", "zinc"), ("Ga", "gallium"), ("Ge", "germanium"),
-    ("As", "arsenic"), ("Se", "selenium"), ("Br", "bromine"), ("Kr", "krypton"),
-    ("Rb", "rubidium"), ("Sr", "strontium"), ("Y", "yttrium"), ("Zr", "zirconium"),
-    ("Nb", "niobium"), ("Mo", "molybdenum"), ("Tc", "technetium"), ("Ru", "ruthenium"),
-    ("Rh", "rhodium"), ("Pd", "palladium"), ("Ag", "silver"), ("Cd", "cadmium"),
-    ("In", "indium"), ("Sn", "tin"), ("Sb", "antimony"), ("Te", "tellurium"), ("I", "iodine"),
-    ("Xe", "xenon"), ("Cs", "caesium"), ("Ba", "barium"), ("La", "lanthanum"), ("Ce", "cerium"),
-    ("Pr", "praseodymium"), ("Nd", "neodymium"), ("Pm", "promethium"), ("Sm", "samarium"),
-    ("Eu", "europium"), ("Gd", "gadolinium"), ("Tb", "terbium"), ("Dy", "dysprosium"),
-    ("Ho", "holmium"), ("Er", "erbium"), ("Tm", "thulium"), ("Yb", "ytterbium"),
-    ("Lu", "lutetium"), ("Hf", "hafnium"), ("Ta", "tantalum"), ("W", "tungsten"),
-    ("Re", "rhenium"), ("Os", "osmium"), ("Ir", "iridium"), ("Pt", "platinum"), ("Au", "gold"),
-    ("Hg", "mercury"), ("Tl", "thallium"), ("Pb", "lead"), ("Bi", "bismuth"),
-    ("Po", "polonium"), ("At", "astatine"), ("Rn", "radon"), ("Fr", "francium"),
-    ("Ra", "radium"), ("Ac", "actinium"), ("Th", "thorium"), ("Pa", "protactinium"),
-    ("U", "uranium"), ("Np", "neptunium"), ("Pu", "plutonium"), ("Am", "americium"),
-    ("Cm", "curium"), ("Bk", "berkelium"), ("Cf", "californium"), ("Es", "einsteinium"),
-    ("Fm", "fermium"), ("Md", "mendelevium"), ("No", "nobelium"), ("Lr", "lawrencium"),
-    ("Rf", "rutherfordium"), ("Db", "dubnium"), ("Sg", "seaborgium"), ("Bh", "bohrium"),
-    ("Hs", "hassium"), ("Mt", "meitnerium"), ("Ds", "darmstadtium"), ("Rg", "roentgenium"),
-    ("Cn", "copernicium"), ("Nh", "nihonium"), ("Fl", "flerovium"), ("Mc", "moscovium"),
-    ("Lv", "livermorium"), ("Ts", "tennessine"), ("Og", "oganesson"),
-)
+_ELEMENTS = tuple(zip((
+    "H He Li Be B C N O F Ne Na Mg Al Si P S Cl Ar K Ca Sc Ti V Cr Mn Fe Co Ni Cu Zn Ga Ge As "
+    "Se Br Kr Rb Sr Y Zr Nb Mo Tc Ru Rh Pd Ag Cd In Sn Sb Te I Xe Cs Ba La Ce Pr Nd Pm Sm Eu Gd "
+    "Tb Dy Ho Er Tm Yb Lu Hf Ta W Re Os Ir Pt Au Hg Tl Pb Bi Po At Rn Fr Ra Ac Th Pa U Np Pu Am "
+    "Cm Bk Cf Es Fm Md No Lr Rf Db Sg Bh Hs Mt Ds Rg Cn Nh Fl Mc Lv Ts Og "
+).split(), (
+    "hydrogen helium lithium beryllium boron carbon nitrogen oxygen fluorine neon sodium "
+    "magnesium aluminium silicon phosphorus sulfur chlorine argon potassium calcium scandium "
+    "titanium vanadium chromium manganese iron cobalt nickel copper zinc gallium germanium "
+    "arsenic selenium bromine krypton rubidium strontium yttrium zirconium niobium molybdenum "
+    "technetium ruthenium rhodium palladium silver cadmium indium tin antimony tellurium iodine "
+    "xenon caesium barium lanthanum cerium praseodymium neodymium promethium samarium europium "
+    "gadolinium terbium dysprosium holmium erbium thulium ytterbium lutetium hafnium tantalum "
+    "tungsten rhenium osmium iridium platinum gold mercury thallium lead bismuth polonium "
+    "astatine radon francium radium actinium thorium protactinium uranium neptunium plutonium "
+    "americium curium berkelium californium einsteinium fermium mendelevium nobelium lawrencium "
+    "rutherfordium dubnium seaborgium bohrium hassium meitnerium darmstadtium roentgenium "
+    "copernicium nihonium flerovium moscovium livermorium tennessine oganesson "
+).split()))
 _SYMBOL_TO_Z = {sym.lower(): z for z, (sym, _name) in enumerate(_ELEMENTS, start=1)}
 _NAME_TO_Z = {name: z for z, (_sym, name) in enumerate(_ELEMENTS, start=1)}
 

@@ -27,8 +27,84 @@ from twoel.integrals import pairs, zero_power
 MAX_PRIMITIVES = 6000
 
 
+def checked_primitives(powers, exponents, sign, contraction, *, all_pair_sums: bool = False,
+                       label: str = "basis"):
+    """Validated ``(powers, exponents, contraction)`` arrays of a correlated basis (any L).
+
+    Parameters
+    ----------
+    powers : array_like of int, shape (P, 3) or None
+        ``(i, j, k)`` powers of ``r1, r2, r12``; ``None`` means zeros (pure exponentials).
+    exponents : array_like, shape (P, 3)
+        ``(α, β, γ)`` in bohr⁻¹.
+    sign : int
+        Exchange sign, +1 or -1.
+    contraction : array_like, shape (P, N), or None
+    all_pair_sums : bool
+        Require ``α+β``, ``β+γ`` and ``γ+α`` all positive (needed with angular factors);
+        otherwise ``α+β > 0`` and a decaying ``r12`` factor.
+    label : str
+        Name of the basis in messages.
+
+    Raises
+    ------
+    InputError, ResourceError
+        With a one-line message naming the rule that failed.
+    """
+    exponents = np.asarray(exponents, dtype=float).reshape(-1, 3)
+    powers = np.zeros(exponents.shape, dtype=np.int64) if powers is None else \
+        np.asarray(powers, dtype=np.int64).reshape(-1, 3)
+    if powers.shape != exponents.shape:
+        raise InputError("basis powers and exponents must have the same shape (P, 3)")
+    if powers.shape[0] == 0:
+        raise InputError("a basis needs at least one function")
+    if powers.shape[0] > MAX_PRIMITIVES:
+        raise ResourceError(f"{label} of {powers.shape[0]} primitives exceeds the limit "
+                            f"{MAX_PRIMITIVES} of the generic matrix builder")
+    if np.any(powers < 0):
+        raise InputError("basis powers must be >= 0")
+    if not np.all(np.isfinite(exponents)):
+        raise InputError("basis exponents must be finite")
+    a, b, g = exponents.T
+    if all_pair_sums:
+        if np.any(a + b <= 0) or np.any(b + g <= 0) or np.any(a + g <= 0):
+            raise InputError(f"{label} exponents must give a normalizable function "
+                             "(α+β, β+γ and α+γ all > 0)")
+    elif np.any(a + b <= 0) or np.any(g < 0) and np.any(g + exponents[:, :2].min(axis=1) <= 0):
+        raise InputError("basis exponents must give a normalizable function "
+                         "(α + β > 0 and the r12 factor decaying)")
+    if sign not in (1, -1):
+        raise InputError(f"exchange sign must be +1 or -1, got {sign!r}")
+    if contraction is not None:
+        contraction = np.asarray(contraction, dtype=float)
+        if contraction.ndim != 2 or contraction.shape[0] != powers.shape[0]:
+            raise InputError("contraction must have shape (n_primitives, n_functions)")
+    return powers, exponents, contraction
+
+
+class PrimitiveArrays:
+    """What every correlated basis (S, P, ...) shares: validated arrays and its sizes."""
+
+    def _store_checked(self, **options) -> None:
+        """Validate the fields with :func:`checked_primitives` and store the arrays."""
+        powers, exponents, contraction = checked_primitives(self.powers, self.exponents, self.sign,
+                                                            self.contraction, **options)
+        object.__setattr__(self, "powers", powers)
+        object.__setattr__(self, "exponents", exponents)
+        object.__setattr__(self, "contraction", contraction)
+
+    @property
+    def n_primitives(self) -> int:
+        return self.exponents.shape[0]
+
+    @property
+    def size(self) -> int:
+        """Number of basis functions (after contraction)."""
+        return self.n_primitives if self.contraction is None else self.contraction.shape[1]
+
+
 @dataclass(frozen=True)
-class CorrelatedBasis:
+class CorrelatedBasis(PrimitiveArrays):
     """Primitives, contraction and exchange symmetry of an S-state correlated basis.
 
     Attributes
@@ -52,41 +128,7 @@ class CorrelatedBasis:
     labels: tuple[str, ...] = field(default=())
 
     def __post_init__(self) -> None:
-        powers = np.asarray(self.powers, dtype=np.int64).reshape(-1, 3)
-        exponents = np.asarray(self.exponents, dtype=float).reshape(-1, 3)
-        if powers.shape != exponents.shape:
-            raise InputError("basis powers and exponents must have the same shape (P, 3)")
-        if powers.shape[0] == 0:
-            raise InputError("a basis needs at least one function")
-        if powers.shape[0] > MAX_PRIMITIVES:
-            raise ResourceError(f"basis of {powers.shape[0]} primitives exceeds the limit "
-                                f"{MAX_PRIMITIVES} of the generic matrix builder")
-        if np.any(powers < 0):
-            raise InputError("basis powers must be >= 0")
-        if not np.all(np.isfinite(exponents)):
-            raise InputError("basis exponents must be finite")
-        if np.any(exponents[:, 0] + exponents[:, 1] <= 0) or np.any(exponents[:, 2] < 0) \
-                and np.any(exponents[:, 2] + exponents[:, :2].min(axis=1) <= 0):
-            raise InputError("basis exponents must give a normalizable function "
-                             "(α + β > 0 and the r12 factor decaying)")
-        if self.sign not in (1, -1):
-            raise InputError(f"exchange sign must be +1 or -1, got {self.sign!r}")
-        object.__setattr__(self, "powers", powers)
-        object.__setattr__(self, "exponents", exponents)
-        if self.contraction is not None:
-            contraction = np.asarray(self.contraction, dtype=float)
-            if contraction.ndim != 2 or contraction.shape[0] != powers.shape[0]:
-                raise InputError("contraction must have shape (n_primitives, n_functions)")
-            object.__setattr__(self, "contraction", contraction)
-
-    @property
-    def n_primitives(self) -> int:
-        return self.powers.shape[0]
-
-    @property
-    def size(self) -> int:
-        """Number of basis functions (after contraction)."""
-        return self.n_primitives if self.contraction is None else self.contraction.shape[1]
+        self._store_checked()
 
     def matrices(self) -> "SystemMatrices":
         """Overlap, kinetic, nuclear and repulsion matrices (see :func:`build_matrices`)."""

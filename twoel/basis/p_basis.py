@@ -18,14 +18,13 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from twoel.errors import InputError, ResourceError
+from twoel.basis.correlated import MAX_PRIMITIVES, PrimitiveArrays  # noqa: F401 (MAX_PRIMITIVES re-exported)
 
 #: largest number of primitives accepted
-MAX_PRIMITIVES = 6000
 
 
 @dataclass(frozen=True)
-class PBasis:
+class PBasis(PrimitiveArrays):
     """Primitives ``z1 g_p`` (exchange-symmetrized with ``sign``) of a P-state basis.
 
     Attributes
@@ -49,40 +48,7 @@ class PBasis:
     angular_momentum = 1
 
     def __post_init__(self) -> None:
-        exponents = np.asarray(self.exponents, dtype=float).reshape(-1, 3)
-        if exponents.shape[0] == 0:
-            raise InputError("a basis needs at least one function")
-        if exponents.shape[0] > MAX_PRIMITIVES:
-            raise ResourceError(f"P basis of {exponents.shape[0]} primitives exceeds the limit {MAX_PRIMITIVES}")
-        if not np.all(np.isfinite(exponents)):
-            raise InputError("basis exponents must be finite")
-        powers = np.zeros(exponents.shape, dtype=np.int64) if self.powers is None else \
-            np.asarray(self.powers, dtype=np.int64).reshape(-1, 3)
-        if powers.shape != exponents.shape:
-            raise InputError("basis powers and exponents must have the same shape (P, 3)")
-        if np.any(powers < 0):
-            raise InputError("basis powers must be >= 0")
-        a, b, g = exponents.T
-        if np.any(a + b <= 0) or np.any(b + g <= 0) or np.any(a + g <= 0):
-            raise InputError("P-basis exponents must give a normalizable function "
-                             "(α+β, β+γ and α+γ all > 0)")
-        if self.sign not in (1, -1):
-            raise InputError(f"exchange sign must be +1 or -1, got {self.sign!r}")
-        object.__setattr__(self, "exponents", exponents)
-        object.__setattr__(self, "powers", powers)
-        if self.contraction is not None:
-            contraction = np.asarray(self.contraction, dtype=float)
-            if contraction.ndim != 2 or contraction.shape[0] != exponents.shape[0]:
-                raise InputError("contraction must have shape (n_primitives, n_functions)")
-            object.__setattr__(self, "contraction", contraction)
-
-    @property
-    def n_primitives(self) -> int:
-        return self.exponents.shape[0]
-
-    @property
-    def size(self) -> int:
-        return self.n_primitives if self.contraction is None else self.contraction.shape[1]
+        self._store_checked(all_pair_sums=True, label="P basis")
 
     def matrices(self):
         """Overlap, kinetic, nuclear (unit charge) and repulsion matrices (Hartree units)."""
