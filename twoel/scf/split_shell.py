@@ -40,11 +40,12 @@ from dataclasses import dataclass, field
 
 import numpy as np
 import scipy.linalg
-import scipy.optimize
 
 from twoel._version import __version__
-from twoel.errors import ConvergenceError, InputError, LinearDependenceError, TwoelError
-from twoel.scf.hartree_fock import (_check_sizes, _seed, even_tempered, orthogonalizer, slater_integrals)
+from twoel.errors import ConvergenceError, InputError, LinearDependenceError
+from twoel.scf.hartree_fock import SLATER_DROP_THRESHOLD, _check_sizes, _seed, even_tempered, slater_integrals
+from twoel.solver.eigen import canonical_orthogonalizer
+from twoel.solver.optimize import minimize_nonlinear
 from twoel.system import Ion
 
 DEFAULT_SPLIT_SIZES = (4, 6, 8, 10)
@@ -89,7 +90,8 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
     (used while the exponents are optimized); otherwise the bare-nucleus orbitals are used.
     """
     ints = slater_integrals(exponents)
-    X, _dropped, _cond = orthogonalizer(ints.overlap)
+    X, _dropped, _cond = canonical_orthogonalizer(ints.overlap, SLATER_DROP_THRESHOLD,
+                                                  what="Slater overlap")
     m = X.shape[1]
     h = X.T @ (ints.kinetic - Z * ints.nuclear) @ X
     t = X.T @ ints.kinetic @ X
@@ -203,35 +205,29 @@ class SplitShellResult:
 
 
 def _optimize(Z: float, n: int, starts, max_evaluations: int = 200):
-    best = {"energy": math.inf, "params": None, "sol": None, "count": 0}
+    """Best even-tempered ``(a, b)`` of size ``n``: the lowest start, then Nelder–Mead in
+    ``(ln a, ln(b-1))`` (:func:`twoel.solver.optimize.minimize_nonlinear`, no virial step: the
+    exponent scale is left to the search)."""
+    best = {"energy": math.inf, "sol": None}
 
-    def energy_at(a, b):
-        best["count"] += 1
+    def energy(values):
         previous = best["sol"]
         start = None if previous is None else (previous.exponents, previous.inner, previous.outer)
-        try:
-            sol = split_shell_energy(Z, even_tempered(a, b, n), start=start)
-        except TwoelError:
-            return 1e6
+        sol = split_shell_energy(Z, even_tempered(values[0], values[1], n), start=start)
         if sol.energy < best["energy"]:
-            best.update(energy=sol.energy, params=(a, b), sol=sol)
-        return sol.energy
+            best.update(energy=sol.energy, sol=sol)
+        return sol.energy, sol
 
-    values = [energy_at(a, b) for a, b in starts]
-    a0, b0 = starts[int(np.argmin(values))]
-    x0 = np.array([math.log(a0), math.log(b0 - 1.0)])
-
-    def objective(x):
-        if not (-12 < x[0] < 8 and -6 < x[1] < 2):
-            return 1e6
-        return energy_at(math.exp(x[0]), 1.0 + math.exp(x[1]))
-
-    scipy.optimize.minimize(objective, x0, method="Nelder-Mead",
-                            options={"initial_simplex": [x0, x0 + [0.1, 0], x0 + [0, 0.1]],
-                                     "xatol": 1e-6, "fatol": 1e-13, "maxfev": max_evaluations})
-    if best["sol"] is None:
+    try:
+        opt = minimize_nonlinear(energy, starts,
+                                 encode=lambda v: [math.log(v[0]), math.log(v[1] - 1.0)],
+                                 decode=lambda x: (math.exp(x[0]), 1.0 + math.exp(x[1])),
+                                 lower=(-12.0, -6.0), upper=(8.0, 2.0), outside="penalty",
+                                 penalty=1e6, failure=1e6, step=0.1, xatol=1e-6, fatol=1e-13,
+                                 max_evaluations=max_evaluations)
+    except ConvergenceError:
         raise ConvergenceError(f"no split-shell solution converged for Z = {Z:g}, size {n}")
-    return best["params"][0], best["params"][1], best["sol"], best["count"]
+    return opt.values[0], opt.values[1], opt.info, opt.n_evaluations
 
 
 def split_shell_limit(Z, sizes=DEFAULT_SPLIT_SIZES, progress=None) -> SplitShellResult:
