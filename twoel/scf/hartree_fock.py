@@ -47,6 +47,7 @@ from twoel._version import __version__
 from twoel.errors import ConvergenceError, InputError, LinearDependenceError
 from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.kernels import integral_table
+from twoel.results import Result
 from twoel.solver.eigen import canonical_orthogonalizer
 from twoel.solver.optimize import minimize_nonlinear, virial_scale
 from twoel.system import Ion
@@ -260,9 +261,30 @@ def _seed(Z: float, n: int) -> tuple[float, float]:
     return a, b
 
 
-@dataclass(frozen=True)
-class ConvergenceStep:
-    """Optimized even-tempered basis of one size and its restricted HF energy (Eh)."""
+@dataclass(frozen=True, repr=False)
+class ConvergenceStep(Result):
+    """Optimized even-tempered basis of one size and its restricted HF energy.
+
+    Attributes
+    ----------
+    size : int
+        Number of 1s Slater functions.
+    a, b : float
+        Even-tempered parameters of ``ζ_k = a b^k`` (``a`` in bohr⁻¹, ``b`` dimensionless).
+    energy_hartree, orbital_energy_hartree : float
+        Restricted HF energy and 1s orbital energy (Eh).
+    change_hartree : float or None
+        ``E(N_k) - E(N_{k-1})`` (Eh, negative when the energy falls; ``None`` for the first
+        size); the opposite sign of :attr:`step_hartree`.
+    virial_ratio : float
+        ``-<V>/<T>``.
+    evaluations : int
+        Energy evaluations of the optimization.
+    condition_number : float
+        Of the diagonally scaled overlap.
+    """
+
+    SUMMARY = ("size", "energy_hartree", "change_hartree")
 
     size: int
     a: float
@@ -274,11 +296,23 @@ class ConvergenceStep:
     evaluations: int
     condition_number: float
 
+    @property
+    def step_hartree(self) -> float | None:
+        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
+        return None if self.change_hartree is None else -self.change_hartree
+
+    def record(self) -> dict:
+        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
+        return {**self.to_dict(), "step_hartree": self.step_hartree}
+
     def to_dict(self) -> dict:
-        return {"size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-                "orbital_energy_hartree": self.orbital_energy_hartree,
-                "change_hartree": self.change_hartree, "virial_ratio": self.virial_ratio,
-                "evaluations": self.evaluations, "condition_number": self.condition_number}
+        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
+        return self._with_aliases({
+            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
+            "orbital_energy_hartree": self.orbital_energy_hartree,
+            "change_hartree": self.change_hartree,
+            "virial_ratio": self.virial_ratio, "evaluations": self.evaluations,
+            "condition_number": self.condition_number})
 
 
 def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 400,
@@ -324,8 +358,8 @@ def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 4
 
 # --------------------------------------------------------------------------- the limit
 
-@dataclass(frozen=True)
-class HartreeFockResult:
+@dataclass(frozen=True, repr=False)
+class HartreeFockResult(Result):
     """Restricted Hartree–Fock limit of the 1s² ground state (Hartree atomic units).
 
     Attributes
@@ -339,10 +373,16 @@ class HartreeFockResult:
         Largest of the last two changes in the convergence table (the remaining basis error is
         smaller for the geometric convergence seen here).
     convergence : tuple of ConvergenceStep
-        Energies per basis size.
+        Energies per basis size (each with ``step_hartree`` from the size before).
     bound : bool
         Whether ``E < -Z²/2`` (restricted HF does not bind H⁻).
+    threshold_hartree : float
+        ``-Z²/2``, the energy of the one-electron ion (Eh).
+    reference : ReferenceValue or None
+        The tabulated HF limit; :attr:`difference_hartree` is ``E - E_reference`` only.
     """
+
+    SUMMARY = ("ion", "energy_hartree", "size")
 
     Z: float
     ion: str
@@ -375,8 +415,9 @@ class HartreeFockResult:
         return None if self.reference is None else self.energy_hartree - self.reference.value
 
     def to_dict(self) -> dict:
+        """JSON-ready dictionary (the ``twoel hf --json`` record)."""
         ref = self.reference
-        return {
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": "1^1S", "method": "restricted Hartree-Fock",
             "energy_hartree": self.energy_hartree,
             "orbital_energy_hartree": self.orbital_energy_hartree,
@@ -390,10 +431,10 @@ class HartreeFockResult:
             "reference_source": None if ref is None else ref.source,
             "reference_note": None if ref is None else ref.note,
             "difference_hartree": self.difference_hartree,
-            "convergence": [s.to_dict() for s in self.convergence],
+            "convergence": [s.record() for s in self.convergence],
             "notes": list(self.notes), "elapsed_seconds": self.elapsed_seconds,
             "provenance": self.provenance,
-        }
+        })
 
 
 def _check_sizes(sizes) -> tuple[int, ...]:

@@ -43,6 +43,7 @@ import scipy.linalg
 
 from twoel._version import __version__
 from twoel.errors import ConvergenceError, InputError, LinearDependenceError
+from twoel.results import Result
 from twoel.scf.hartree_fock import SLATER_DROP_THRESHOLD, _check_sizes, _seed, even_tempered, slater_integrals
 from twoel.solver.eigen import canonical_orthogonalizer
 from twoel.solver.optimize import minimize_nonlinear
@@ -147,8 +148,17 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
                               ints.exponents)
 
 
-@dataclass(frozen=True)
-class SplitShellStep:
+@dataclass(frozen=True, repr=False)
+class SplitShellStep(Result):
+    """Optimized even-tempered basis of one size and its split-shell energy.
+
+    ``a`` (bohr⁻¹) and ``b`` define ``ζ_k = a b^k``; ``energy_hartree`` in Eh;
+    ``change_hartree = E(N_k) - E(N_{k-1})`` (Eh, ``None`` for the first size) is the opposite
+    sign of :attr:`step_hartree`; ``orbital_overlap`` is ``<u|v>`` of the normalized orbitals.
+    """
+
+    SUMMARY = ("size", "energy_hartree", "change_hartree")
+
     size: int
     a: float
     b: float
@@ -158,15 +168,35 @@ class SplitShellStep:
     virial_ratio: float
     evaluations: int
 
+    @property
+    def step_hartree(self) -> float | None:
+        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
+        return None if self.change_hartree is None else -self.change_hartree
+
+    def record(self) -> dict:
+        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
+        return {**self.to_dict(), "step_hartree": self.step_hartree}
+
     def to_dict(self) -> dict:
-        return {"size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-                "change_hartree": self.change_hartree, "orbital_overlap": self.orbital_overlap,
-                "virial_ratio": self.virial_ratio, "evaluations": self.evaluations}
+        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
+        return self._with_aliases({
+            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
+            "change_hartree": self.change_hartree,
+            "orbital_overlap": self.orbital_overlap, "virial_ratio": self.virial_ratio,
+            "evaluations": self.evaluations})
 
 
-@dataclass(frozen=True)
-class SplitShellResult:
-    """Split-shell energy converged over basis sizes, clearly flagged as not Hartree–Fock."""
+@dataclass(frozen=True, repr=False)
+class SplitShellResult(Result):
+    """Split-shell energy converged over basis sizes, clearly flagged as not Hartree–Fock.
+
+    Energies in Eh; ``estimated_error_hartree`` is the last change between sizes;
+    ``orbital_overlap`` is ``<u|v>`` of the final orbitals; ``convergence`` holds one
+    :class:`SplitShellStep` per size.  There is no published reference (no
+    ``difference_hartree``): the function is not Hartree–Fock.
+    """
+
+    SUMMARY = ("ion", "energy_hartree", "size")
 
     Z: float
     ion: str
@@ -190,7 +220,8 @@ class SplitShellResult:
         return self.convergence[-1].size
 
     def to_dict(self) -> dict:
-        return {
+        """JSON-ready dictionary (the ``twoel hf --split-shell --json`` record)."""
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": "1^1S", "method": self.method,
             "is_hartree_fock": self.is_hartree_fock, "energy_hartree": self.energy_hartree,
             "orbital_energy_hartree": None,
@@ -198,10 +229,10 @@ class SplitShellResult:
             "virial_ratio": self.virial_ratio, "orbital_overlap": self.orbital_overlap,
             "estimated_error_hartree": self.estimated_error_hartree, "size": self.size,
             "bound": self.bound, "threshold_hartree": self.threshold_hartree,
-            "convergence": [s.to_dict() for s in self.convergence],
+            "convergence": [s.record() for s in self.convergence],
             "notes": list(self.notes), "elapsed_seconds": self.elapsed_seconds,
             "provenance": self.provenance,
-        }
+        })
 
 
 def _optimize(Z: float, n: int, starts, max_evaluations: int = 200):
