@@ -252,6 +252,22 @@ def restricted_energy(Z: float, a: float, b: float, n: int, guess=None) -> SCFSo
     return roothaan_scf(slater_integrals(even_tempered(a, b, n)), Z, guess=guess)
 
 
+#: the search of an even-tempered basis (:func:`twoel.solver.optimize.minimize_nonlinear`
+#: options): coordinates ``(ln a, ln(b - 1))`` inside a box; points outside it or with a failed
+#: SCF count as 1e6 Eh.  Shared by the restricted and the split-shell optimizations.
+EVEN_TEMPERED_SEARCH = {
+    "encode": lambda v: [math.log(v[0]), math.log(v[1] - 1.0)],
+    "decode": lambda x: (math.exp(x[0]), 1.0 + math.exp(x[1])),
+    "lower": (-12.0, -6.0), "upper": (8.0, 2.0), "outside": "penalty", "penalty": 1e6,
+    "failure": 1e6,
+}
+
+
+def _next_start(a: float, b: float) -> tuple[float, float]:
+    """Start for the next larger even-tempered basis from the optimum ``(a, b)`` of a smaller one."""
+    return a / math.sqrt(b), 1.0 + (b - 1.0) * 0.93
+
+
 def _seed(Z: float, n: int) -> tuple[float, float]:
     scale = max(Z - 5.0 / 16.0, 0.3 * Z) / (2.0 - 5.0 / 16.0)
     a = float(np.interp(n, _SEED_N, _SEED_A)) * scale
@@ -345,12 +361,9 @@ def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 4
                                      scalar_bounds=(math.log(0.05 * Z), math.log(3.0 * Z + 1)),
                                      scalar_xatol=1e-10, **common)
         else:
-            opt = minimize_nonlinear(energy, [_seed(Z, n), *starts],
-                                     encode=lambda v: [math.log(v[0]), math.log(v[1] - 1.0)],
-                                     decode=lambda x: (math.exp(x[0]), 1.0 + math.exp(x[1])),
-                                     lower=(-12.0, -6.0), upper=(8.0, 2.0), outside="penalty",
-                                     penalty=1e6, failure=1e6, step=0.08, xatol=1e-7,
-                                     fatol=tolerance, max_evaluations=max_evaluations, **common)
+            opt = minimize_nonlinear(energy, [_seed(Z, n), *starts], **EVEN_TEMPERED_SEARCH,
+                                     step=0.08, xatol=1e-7, fatol=tolerance,
+                                     max_evaluations=max_evaluations, **common)
     except ConvergenceError:
         raise ConvergenceError(f"no even-tempered basis of size {n} gave a converged SCF for Z = {Z:g}")
     return opt.values[0], opt.values[1], opt.info, opt.n_evaluations
@@ -481,8 +494,7 @@ def hartree_fock_limit(Z, sizes=DEFAULT_SIZES, progress=None) -> HartreeFockResu
             progress(n)
         starts = []
         if previous_params is not None and n > 1:
-            a_prev, b_prev = previous_params
-            starts.append((a_prev / math.sqrt(b_prev), 1.0 + (b_prev - 1.0) * 0.93))
+            starts.append(_next_start(*previous_params))
         a, b, sol, count = optimize_even_tempered(Z, n, starts=starts)
         change = None if not steps else sol.energy - steps[-1].energy_hartree
         steps.append(ConvergenceStep(n, a, b, sol.energy, sol.orbital_energy, change,

@@ -44,7 +44,8 @@ import scipy.linalg
 from twoel._version import __version__
 from twoel.errors import ConvergenceError, InputError, LinearDependenceError
 from twoel.results import Result
-from twoel.scf.hartree_fock import SLATER_DROP_THRESHOLD, _check_sizes, _seed, even_tempered, slater_integrals
+from twoel.scf.hartree_fock import (EVEN_TEMPERED_SEARCH, SLATER_DROP_THRESHOLD, _check_sizes, _next_start,
+                                   _seed, even_tempered, slater_integrals)
 from twoel.solver.eigen import canonical_orthogonalizer
 from twoel.solver.optimize import minimize_nonlinear
 from twoel.system import Ion
@@ -250,12 +251,8 @@ def _optimize(Z: float, n: int, starts, max_evaluations: int = 200):
         return sol.energy, sol
 
     try:
-        opt = minimize_nonlinear(energy, starts,
-                                 encode=lambda v: [math.log(v[0]), math.log(v[1] - 1.0)],
-                                 decode=lambda x: (math.exp(x[0]), 1.0 + math.exp(x[1])),
-                                 lower=(-12.0, -6.0), upper=(8.0, 2.0), outside="penalty",
-                                 penalty=1e6, failure=1e6, step=0.1, xatol=1e-6, fatol=1e-13,
-                                 max_evaluations=max_evaluations)
+        opt = minimize_nonlinear(energy, starts, **EVEN_TEMPERED_SEARCH, step=0.1, xatol=1e-6,
+                                 fatol=1e-13, max_evaluations=max_evaluations)
     except ConvergenceError:
         raise ConvergenceError(f"no split-shell solution converged for Z = {Z:g}, size {n}")
     return opt.values[0], opt.values[1], opt.info, opt.n_evaluations
@@ -286,7 +283,7 @@ def split_shell_limit(Z, sizes=DEFAULT_SPLIT_SIZES, progress=None) -> SplitShell
         a_hf, b_hf = _seed(Z, n)
         starts = [(a_hf * 0.5, b_hf * 1.1), (a_hf * 0.2, b_hf * 1.25)]
         if previous is not None:
-            starts.append((previous[0] / math.sqrt(previous[1]), 1.0 + (previous[1] - 1.0) * 0.93))
+            starts.append(_next_start(*previous))
         a, b, sol, count = _optimize(Z, n, starts)
         change = None if not steps else sol.energy - steps[-1].energy_hartree
         steps.append(SplitShellStep(n, a, b, sol.energy, change, sol.orbital_overlap,
