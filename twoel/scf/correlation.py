@@ -16,6 +16,7 @@ from dataclasses import dataclass
 
 from twoel.errors import UnsupportedError
 from twoel.reference import NONREL_ENERGY, ReferenceValue, lookup
+from twoel.results import Result
 from twoel.system import Ion
 from twoel.units import hartree_to
 
@@ -26,9 +27,17 @@ HF_LIMIT = "hartree_fock_limit"
 CORRELATION_UNITS = ("hartree", "mhartree", "kcal/mol", "kj/mol", "cm-1", "ev")
 
 
-@dataclass(frozen=True)
-class CorrelationEnergy:
-    """``E_corr = E_exact − E_HF`` of one ion (Eh), with both inputs and their sources."""
+@dataclass(frozen=True, repr=False)
+class CorrelationEnergy(Result):
+    """``E_corr = E_exact − E_HF`` of one ion (Eh), with both inputs and their sources.
+
+    ``exact`` and ``hartree_fock`` are the tabulated values (Eh) with their sources;
+    :meth:`to_dict` gives the correlation energy in every unit of :data:`CORRELATION_UNITS`
+    (``correlation_hartree``, ``correlation_mhartree``, ``correlation_kcal_mol``,
+    ``correlation_kj_mol``, ``correlation_cm1``, ``correlation_ev``).
+    """
+
+    SUMMARY = ("ion", "correlation_hartree")
 
     Z: float
     ion: str
@@ -57,7 +66,7 @@ class CorrelationEnergy:
 
     def to_dict(self) -> dict:
         values = self.in_units()
-        return {
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": "1^1S",
             "exact_hartree": self.exact_hartree, "hartree_fock_hartree": self.hartree_fock_hartree,
             "correlation_hartree": values["hartree"], "correlation_mhartree": values["mhartree"],
@@ -66,7 +75,7 @@ class CorrelationEnergy:
             "exact_source": self.exact.source, "exact_note": self.exact.note,
             "hartree_fock_source": self.hartree_fock.source,
             "hartree_fock_note": self.hartree_fock.note,
-        }
+        })
 
 
 def hartree_fock_reference(Z) -> ReferenceValue | None:

@@ -41,13 +41,15 @@ import time
 from dataclasses import dataclass, field
 
 import numpy as np
-import scipy.optimize
 
 from twoel import constants
 from twoel._version import __version__
-from twoel.errors import ConvergenceError, InputError, LinearDependenceError, TwoelError
+from twoel.errors import ConvergenceError, InputError, LinearDependenceError
 from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.kernels import integral_table
+from twoel.results import Result
+from twoel.solver.eigen import canonical_orthogonalizer
+from twoel.solver.optimize import minimize_nonlinear, virial_scale
 from twoel.system import Ion
 
 #: quantity name of Hartree–Fock limits in ``data/hartree_fock_limits.csv``
@@ -137,22 +139,12 @@ def slater_integrals(exponents) -> SlaterIntegrals:
 
 
 def orthogonalizer(overlap: np.ndarray, drop_threshold: float = SLATER_DROP_THRESHOLD):
-    """Canonical orthogonalization ``X`` (``X^T S X = 1``) and the number of dropped directions.
+    """Canonical orthogonalization ``X`` (``X^T S X = 1``), dropped directions and condition number.
 
-    Löwdin, Adv. Quantum Chem. 5, 185 (1970); directions of the diagonally scaled overlap below
-    ``drop_threshold`` (relative) are removed, as in :func:`twoel.solver.eigen.solve_generalized`.
+    :func:`twoel.solver.eigen.canonical_orthogonalizer` with the Slater threshold
+    :data:`SLATER_DROP_THRESHOLD` (kept under this name for older callers).
     """
-    d = 1.0 / np.sqrt(np.diag(overlap))
-    scaled = overlap * d[:, None] * d[None, :]
-    values, vectors = np.linalg.eigh(scaled)
-    if values[0] < -1e-10 * values[-1]:
-        raise LinearDependenceError("Slater overlap matrix is not positive definite")
-    keep = values > drop_threshold * values[-1]
-    if not np.any(keep):
-        raise LinearDependenceError("no basis direction survives canonical orthogonalization")
-    X = vectors[:, keep] / np.sqrt(values[keep])[None, :] * d[:, None]
-    condition = float(values[-1] / values[0]) if values[0] > 0 else float("inf")
-    return X, int(np.count_nonzero(~keep)), condition
+    return canonical_orthogonalizer(overlap, drop_threshold, what="Slater overlap")
 
 
 # --------------------------------------------------------------------------- restricted SCF
@@ -198,7 +190,8 @@ def roothaan_scf(integrals: SlaterIntegrals, Z: float, guess: np.ndarray | None 
     ConvergenceError
         If the iterations do not converge.
     """
-    X, n_dropped, condition = orthogonalizer(integrals.overlap)
+    X, n_dropped, condition = canonical_orthogonalizer(integrals.overlap, SLATER_DROP_THRESHOLD,
+                                                       what="Slater overlap")
     h = X.T @ (integrals.kinetic - Z * integrals.nuclear) @ X
     m = X.shape[1]
     G = np.einsum("klmn,ka,lb,mc,nd->abcd", integrals.repulsion, X, X, X, X, optimize=True)
@@ -259,6 +252,22 @@ def restricted_energy(Z: float, a: float, b: float, n: int, guess=None) -> SCFSo
     return roothaan_scf(slater_integrals(even_tempered(a, b, n)), Z, guess=guess)
 
 
+#: the search of an even-tempered basis (:func:`twoel.solver.optimize.minimize_nonlinear`
+#: options): coordinates ``(ln a, ln(b - 1))`` inside a box; points outside it or with a failed
+#: SCF count as 1e6 Eh.  Shared by the restricted and the split-shell optimizations.
+EVEN_TEMPERED_SEARCH = {
+    "encode": lambda v: [math.log(v[0]), math.log(v[1] - 1.0)],
+    "decode": lambda x: (math.exp(x[0]), 1.0 + math.exp(x[1])),
+    "lower": (-12.0, -6.0), "upper": (8.0, 2.0), "outside": "penalty", "penalty": 1e6,
+    "failure": 1e6,
+}
+
+
+def _next_start(a: float, b: float) -> tuple[float, float]:
+    """Start for the next larger even-tempered basis from the optimum ``(a, b)`` of a smaller one."""
+    return a / math.sqrt(b), 1.0 + (b - 1.0) * 0.93
+
+
 def _seed(Z: float, n: int) -> tuple[float, float]:
     scale = max(Z - 5.0 / 16.0, 0.3 * Z) / (2.0 - 5.0 / 16.0)
     a = float(np.interp(n, _SEED_N, _SEED_A)) * scale
@@ -268,9 +277,30 @@ def _seed(Z: float, n: int) -> tuple[float, float]:
     return a, b
 
 
-@dataclass(frozen=True)
-class ConvergenceStep:
-    """Optimized even-tempered basis of one size and its restricted HF energy (Eh)."""
+@dataclass(frozen=True, repr=False)
+class ConvergenceStep(Result):
+    """Optimized even-tempered basis of one size and its restricted HF energy.
+
+    Attributes
+    ----------
+    size : int
+        Number of 1s Slater functions.
+    a, b : float
+        Even-tempered parameters of ``ζ_k = a b^k`` (``a`` in bohr⁻¹, ``b`` dimensionless).
+    energy_hartree, orbital_energy_hartree : float
+        Restricted HF energy and 1s orbital energy (Eh).
+    change_hartree : float or None
+        ``E(N_k) - E(N_{k-1})`` (Eh, negative when the energy falls; ``None`` for the first
+        size); the opposite sign of :attr:`step_hartree`.
+    virial_ratio : float
+        ``-<V>/<T>``.
+    evaluations : int
+        Energy evaluations of the optimization.
+    condition_number : float
+        Of the diagonally scaled overlap.
+    """
+
+    SUMMARY = ("size", "energy_hartree", "change_hartree")
 
     size: int
     a: float
@@ -282,11 +312,23 @@ class ConvergenceStep:
     evaluations: int
     condition_number: float
 
+    @property
+    def step_hartree(self) -> float | None:
+        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
+        return None if self.change_hartree is None else -self.change_hartree
+
+    def record(self) -> dict:
+        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
+        return {**self.to_dict(), "step_hartree": self.step_hartree}
+
     def to_dict(self) -> dict:
-        return {"size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-                "orbital_energy_hartree": self.orbital_energy_hartree,
-                "change_hartree": self.change_hartree, "virial_ratio": self.virial_ratio,
-                "evaluations": self.evaluations, "condition_number": self.condition_number}
+        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
+        return self._with_aliases({
+            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
+            "orbital_energy_hartree": self.orbital_energy_hartree,
+            "change_hartree": self.change_hartree,
+            "virial_ratio": self.virial_ratio, "evaluations": self.evaluations,
+            "condition_number": self.condition_number})
 
 
 def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 400,
@@ -294,67 +336,43 @@ def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 4
     """Minimize the restricted HF energy over ``(a, b)`` for ``n`` functions.
 
     ``starts`` are extra ``(a, b)`` starting points (e.g. the optimum of a smaller basis); the
-    best of them and the Z-scaled default seed starts a Nelder–Mead search in ``(ln a, ln(b-1))``.
-    For ``n = 1`` the optimum is the screened charge ``a = Z - 5/16`` (found by a bounded search).
+    best of them and the Z-scaled default seed starts a Nelder–Mead search in ``(ln a, ln(b-1))``
+    (:func:`twoel.solver.optimize.minimize_nonlinear`, followed by up to three virial
+    rescalings ``a -> λa``).  For ``n = 1`` the optimum is the screened charge ``a = Z - 5/16``
+    (found by a bounded search in ``ln a``).
 
     Returns
     -------
     a, b, solution, evaluations
     """
-    cache = {"guess": None, "best": (math.inf, None, None), "count": 0}
+    guess = {"coefficients": None}
 
-    def energy_at(a: float, b: float) -> float:
-        cache["count"] += 1
-        try:
-            sol = restricted_energy(Z, a, b, n, guess=cache["guess"])
-        except TwoelError:
-            return 1e6
-        cache["guess"] = sol.coefficients
-        if sol.energy < cache["best"][0]:
-            cache["best"] = (sol.energy, (a, b), sol)
-        return sol.energy
+    def energy(values):
+        sol = restricted_energy(Z, values[0], values[1], n, guess=guess["coefficients"])
+        guess["coefficients"] = sol.coefficients
+        return sol.energy, sol
 
-    if n == 1:
-        scipy.optimize.minimize_scalar(lambda x: energy_at(math.exp(x), 2.0),
-                                       bounds=(math.log(0.05 * Z), math.log(3.0 * Z + 1)),
-                                       method="bounded", options={"xatol": 1e-10})
-    else:
-        candidates = [_seed(Z, n), *starts]
-        values = [energy_at(a, b) for a, b in candidates]
-        a0, b0 = candidates[int(np.argmin(values))]
-        x0 = np.array([math.log(a0), math.log(b0 - 1.0)])
-        simplex = np.array([x0, x0 + [0.08, 0.0], x0 + [0.0, 0.08]])
-
-        def objective(x):
-            if not (-12 < x[0] < 8 and -6 < x[1] < 2):
-                return 1e6
-            return energy_at(math.exp(x[0]), 1.0 + math.exp(x[1]))
-
-        scipy.optimize.minimize(objective, x0, method="Nelder-Mead",
-                                options={"initial_simplex": simplex, "xatol": 1e-7,
-                                         "fatol": tolerance, "maxfev": max_evaluations})
-    # virial polish: at the optimal scale -V/T = 2 exactly (Fock 1930), so rescale a -> λa
-    for _ in range(3):
-        energy, params, sol = cache["best"]
-        if sol is None:
-            break
-        lam = -sol.potential / (2.0 * sol.kinetic)
-        if abs(lam - 1.0) < 1e-13:
-            break
-        before = energy
-        energy_at(params[0] * lam, params[1])
-        if cache["best"][0] >= before:
-            break
-    energy, params, sol = cache["best"]
-    if sol is None:
+    common = dict(virial=lambda sol: virial_scale(sol.kinetic, sol.potential),
+                  scaled=(True, False), virial_steps=3, virial_tolerance=1e-13)
+    try:
+        if n == 1:
+            opt = minimize_nonlinear(energy, [(Z, 2.0)], encode=lambda v: [math.log(v[0])],
+                                     decode=lambda x: (math.exp(x[0]), 2.0), screen_starts=False,
+                                     scalar_bounds=(math.log(0.05 * Z), math.log(3.0 * Z + 1)),
+                                     scalar_xatol=1e-10, **common)
+        else:
+            opt = minimize_nonlinear(energy, [_seed(Z, n), *starts], **EVEN_TEMPERED_SEARCH,
+                                     step=0.08, xatol=1e-7, fatol=tolerance,
+                                     max_evaluations=max_evaluations, **common)
+    except ConvergenceError:
         raise ConvergenceError(f"no even-tempered basis of size {n} gave a converged SCF for Z = {Z:g}")
-    return params[0], params[1], sol, cache["count"]
+    return opt.values[0], opt.values[1], opt.info, opt.n_evaluations
 
 
 # --------------------------------------------------------------------------- the limit
 
-@dataclass(frozen=True)
-class HartreeFockResult:
+@dataclass(frozen=True, repr=False)
+class HartreeFockResult(Result):
     """Restricted Hartree–Fock limit of the 1s² ground state (Hartree atomic units).
 
     Attributes
@@ -368,10 +386,16 @@ class HartreeFockResult:
         Largest of the last two changes in the convergence table (the remaining basis error is
         smaller for the geometric convergence seen here).
     convergence : tuple of ConvergenceStep
-        Energies per basis size.
+        Energies per basis size (each with ``step_hartree`` from the size before).
     bound : bool
         Whether ``E < -Z²/2`` (restricted HF does not bind H⁻).
+    threshold_hartree : float
+        ``-Z²/2``, the energy of the one-electron ion (Eh).
+    reference : ReferenceValue or None
+        The tabulated HF limit; :attr:`difference_hartree` is ``E - E_reference`` only.
     """
+
+    SUMMARY = ("ion", "energy_hartree", "size")
 
     Z: float
     ion: str
@@ -404,8 +428,9 @@ class HartreeFockResult:
         return None if self.reference is None else self.energy_hartree - self.reference.value
 
     def to_dict(self) -> dict:
+        """JSON-ready dictionary (the ``twoel hf --json`` record)."""
         ref = self.reference
-        return {
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": "1^1S", "method": "restricted Hartree-Fock",
             "energy_hartree": self.energy_hartree,
             "orbital_energy_hartree": self.orbital_energy_hartree,
@@ -419,10 +444,10 @@ class HartreeFockResult:
             "reference_source": None if ref is None else ref.source,
             "reference_note": None if ref is None else ref.note,
             "difference_hartree": self.difference_hartree,
-            "convergence": [s.to_dict() for s in self.convergence],
+            "convergence": [s.record() for s in self.convergence],
             "notes": list(self.notes), "elapsed_seconds": self.elapsed_seconds,
             "provenance": self.provenance,
-        }
+        })
 
 
 def _check_sizes(sizes) -> tuple[int, ...]:
@@ -469,8 +494,7 @@ def hartree_fock_limit(Z, sizes=DEFAULT_SIZES, progress=None) -> HartreeFockResu
             progress(n)
         starts = []
         if previous_params is not None and n > 1:
-            a_prev, b_prev = previous_params
-            starts.append((a_prev / math.sqrt(b_prev), 1.0 + (b_prev - 1.0) * 0.93))
+            starts.append(_next_start(*previous_params))
         a, b, sol, count = optimize_even_tempered(Z, n, starts=starts)
         change = None if not steps else sol.energy - steps[-1].energy_hartree
         steps.append(ConvergenceStep(n, a, b, sol.energy, sol.orbital_energy, change,

@@ -40,11 +40,14 @@ from dataclasses import dataclass, field
 
 import numpy as np
 import scipy.linalg
-import scipy.optimize
 
 from twoel._version import __version__
-from twoel.errors import ConvergenceError, InputError, LinearDependenceError, TwoelError
-from twoel.scf.hartree_fock import (_check_sizes, _seed, even_tempered, orthogonalizer, slater_integrals)
+from twoel.errors import ConvergenceError, InputError, LinearDependenceError
+from twoel.results import Result
+from twoel.scf.hartree_fock import (EVEN_TEMPERED_SEARCH, SLATER_DROP_THRESHOLD, _check_sizes, _next_start,
+                                   _seed, even_tempered, slater_integrals)
+from twoel.solver.eigen import canonical_orthogonalizer
+from twoel.solver.optimize import minimize_nonlinear
 from twoel.system import Ion
 
 DEFAULT_SPLIT_SIZES = (4, 6, 8, 10)
@@ -89,7 +92,8 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
     (used while the exponents are optimized); otherwise the bare-nucleus orbitals are used.
     """
     ints = slater_integrals(exponents)
-    X, _dropped, _cond = orthogonalizer(ints.overlap)
+    X, _dropped, _cond = canonical_orthogonalizer(ints.overlap, SLATER_DROP_THRESHOLD,
+                                                  what="Slater overlap")
     m = X.shape[1]
     h = X.T @ (ints.kinetic - Z * ints.nuclear) @ X
     t = X.T @ ints.kinetic @ X
@@ -145,8 +149,17 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
                               ints.exponents)
 
 
-@dataclass(frozen=True)
-class SplitShellStep:
+@dataclass(frozen=True, repr=False)
+class SplitShellStep(Result):
+    """Optimized even-tempered basis of one size and its split-shell energy.
+
+    ``a`` (bohr⁻¹) and ``b`` define ``ζ_k = a b^k``; ``energy_hartree`` in Eh;
+    ``change_hartree = E(N_k) - E(N_{k-1})`` (Eh, ``None`` for the first size) is the opposite
+    sign of :attr:`step_hartree`; ``orbital_overlap`` is ``<u|v>`` of the normalized orbitals.
+    """
+
+    SUMMARY = ("size", "energy_hartree", "change_hartree")
+
     size: int
     a: float
     b: float
@@ -156,15 +169,35 @@ class SplitShellStep:
     virial_ratio: float
     evaluations: int
 
+    @property
+    def step_hartree(self) -> float | None:
+        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
+        return None if self.change_hartree is None else -self.change_hartree
+
+    def record(self) -> dict:
+        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
+        return {**self.to_dict(), "step_hartree": self.step_hartree}
+
     def to_dict(self) -> dict:
-        return {"size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-                "change_hartree": self.change_hartree, "orbital_overlap": self.orbital_overlap,
-                "virial_ratio": self.virial_ratio, "evaluations": self.evaluations}
+        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
+        return self._with_aliases({
+            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
+            "change_hartree": self.change_hartree,
+            "orbital_overlap": self.orbital_overlap, "virial_ratio": self.virial_ratio,
+            "evaluations": self.evaluations})
 
 
-@dataclass(frozen=True)
-class SplitShellResult:
-    """Split-shell energy converged over basis sizes, clearly flagged as not Hartree–Fock."""
+@dataclass(frozen=True, repr=False)
+class SplitShellResult(Result):
+    """Split-shell energy converged over basis sizes, clearly flagged as not Hartree–Fock.
+
+    Energies in Eh; ``estimated_error_hartree`` is the last change between sizes;
+    ``orbital_overlap`` is ``<u|v>`` of the final orbitals; ``convergence`` holds one
+    :class:`SplitShellStep` per size.  There is no published reference (no
+    ``difference_hartree``): the function is not Hartree–Fock.
+    """
+
+    SUMMARY = ("ion", "energy_hartree", "size")
 
     Z: float
     ion: str
@@ -188,7 +221,8 @@ class SplitShellResult:
         return self.convergence[-1].size
 
     def to_dict(self) -> dict:
-        return {
+        """JSON-ready dictionary (the ``twoel hf --split-shell --json`` record)."""
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": "1^1S", "method": self.method,
             "is_hartree_fock": self.is_hartree_fock, "energy_hartree": self.energy_hartree,
             "orbital_energy_hartree": None,
@@ -196,42 +230,32 @@ class SplitShellResult:
             "virial_ratio": self.virial_ratio, "orbital_overlap": self.orbital_overlap,
             "estimated_error_hartree": self.estimated_error_hartree, "size": self.size,
             "bound": self.bound, "threshold_hartree": self.threshold_hartree,
-            "convergence": [s.to_dict() for s in self.convergence],
+            "convergence": [s.record() for s in self.convergence],
             "notes": list(self.notes), "elapsed_seconds": self.elapsed_seconds,
             "provenance": self.provenance,
-        }
+        })
 
 
 def _optimize(Z: float, n: int, starts, max_evaluations: int = 200):
-    best = {"energy": math.inf, "params": None, "sol": None, "count": 0}
+    """Best even-tempered ``(a, b)`` of size ``n``: the lowest start, then Nelder–Mead in
+    ``(ln a, ln(b-1))`` (:func:`twoel.solver.optimize.minimize_nonlinear`, no virial step: the
+    exponent scale is left to the search)."""
+    best = {"energy": math.inf, "sol": None}
 
-    def energy_at(a, b):
-        best["count"] += 1
+    def energy(values):
         previous = best["sol"]
         start = None if previous is None else (previous.exponents, previous.inner, previous.outer)
-        try:
-            sol = split_shell_energy(Z, even_tempered(a, b, n), start=start)
-        except TwoelError:
-            return 1e6
+        sol = split_shell_energy(Z, even_tempered(values[0], values[1], n), start=start)
         if sol.energy < best["energy"]:
-            best.update(energy=sol.energy, params=(a, b), sol=sol)
-        return sol.energy
+            best.update(energy=sol.energy, sol=sol)
+        return sol.energy, sol
 
-    values = [energy_at(a, b) for a, b in starts]
-    a0, b0 = starts[int(np.argmin(values))]
-    x0 = np.array([math.log(a0), math.log(b0 - 1.0)])
-
-    def objective(x):
-        if not (-12 < x[0] < 8 and -6 < x[1] < 2):
-            return 1e6
-        return energy_at(math.exp(x[0]), 1.0 + math.exp(x[1]))
-
-    scipy.optimize.minimize(objective, x0, method="Nelder-Mead",
-                            options={"initial_simplex": [x0, x0 + [0.1, 0], x0 + [0, 0.1]],
-                                     "xatol": 1e-6, "fatol": 1e-13, "maxfev": max_evaluations})
-    if best["sol"] is None:
+    try:
+        opt = minimize_nonlinear(energy, starts, **EVEN_TEMPERED_SEARCH, step=0.1, xatol=1e-6,
+                                 fatol=1e-13, max_evaluations=max_evaluations)
+    except ConvergenceError:
         raise ConvergenceError(f"no split-shell solution converged for Z = {Z:g}, size {n}")
-    return best["params"][0], best["params"][1], best["sol"], best["count"]
+    return opt.values[0], opt.values[1], opt.info, opt.n_evaluations
 
 
 def split_shell_limit(Z, sizes=DEFAULT_SPLIT_SIZES, progress=None) -> SplitShellResult:
@@ -259,7 +283,7 @@ def split_shell_limit(Z, sizes=DEFAULT_SPLIT_SIZES, progress=None) -> SplitShell
         a_hf, b_hf = _seed(Z, n)
         starts = [(a_hf * 0.5, b_hf * 1.1), (a_hf * 0.2, b_hf * 1.25)]
         if previous is not None:
-            starts.append((previous[0] / math.sqrt(previous[1]), 1.0 + (previous[1] - 1.0) * 0.93))
+            starts.append(_next_start(*previous))
         a, b, sol, count = _optimize(Z, n, starts)
         change = None if not steps else sol.energy - steps[-1].energy_hartree
         steps.append(SplitShellStep(n, a, b, sol.energy, change, sol.orbital_overlap,

@@ -1,18 +1,30 @@
-"""Optimization of the nonlinear parameters (exponents) with :mod:`scipy.optimize`.
+r"""Optimization of nonlinear parameters (exponents): one Nelder–Mead search with virial rescaling.
 
-Exponents are optimized on a logarithmic scale inside their bounds.  One parameter uses
-Brent's bounded scalar search; several use Nelder–Mead, which needs
-no gradients (the energy is smooth but its numerical gradient is noisy near linear
-dependence).  After the search a virial rescaling ``exponents -> λ·exponents`` with
-``λ = -<V>/(2<T>)`` is applied if it lowers the energy: at a true optimum over a scale the
-virial theorem ``-<V>/<T> = 2`` holds exactly (Fock, Z. Phys. 63, 855 (1930)), so this removes
-the last loose digits of the scale.
+:func:`minimize_nonlinear` is the one search of twoel (pure: start values and bounds in, an
+:class:`NonlinearOptimum` out; it prints and writes nothing).  Its steps:
+
+1. *screening* (optional): every start is evaluated and the lowest starts the search;
+2. the search runs in coordinates ``x`` chosen by the caller (``decode(x)`` gives the parameter
+   values, ``encode`` the inverse; typically logarithms of exponents).  Several coordinates use
+   Nelder–Mead (Nelder and Mead, Comput. J. 7, 308 (1965); scipy's implementation), which needs
+   no gradients (the energy is smooth but its numerical gradient is noisy near linear
+   dependence); one coordinate uses Brent's bounded scalar search;
+3. *virial rescaling* (optional): with ``λ = -<V>/(2<T>)`` at the best point, the exponent values
+   are multiplied by ``λ`` and the rescaled point is kept if it is lower, up to ``virial_steps``
+   times.  At a true optimum over a common scale of the exponents the virial theorem
+   ``-<V>/<T> = 2`` holds exactly (Fock, Z. Phys. 63, 855 (1930)), so this removes the last loose
+   digits of the scale.
+
+The lowest energy over *all* evaluations is returned (not only scipy's final simplex point).
+:func:`minimize_energy` is the same search over named :class:`~twoel.basis.base.Parameter`
+values (log scale inside their bounds), used by the solve pipeline and the box tuner.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
-from typing import Callable, Sequence
+from typing import Any, Callable, Sequence
 
 import numpy as np
 import scipy.optimize
@@ -21,9 +33,197 @@ from twoel.basis.base import Parameter
 from twoel.errors import ConvergenceError, TwoelError
 
 
+def virial_scale(kinetic: float, potential: float) -> float:
+    """The exponent scale ``λ = -<V>/(2<T>)`` that satisfies the virial theorem (dimensionless).
+
+    Parameters
+    ----------
+    kinetic, potential : float
+        ``<T>`` and ``<V>`` of the trial function (Eh); ``<T>`` must be positive.
+    """
+    return -potential / (2.0 * kinetic)
+
+
+@dataclass(frozen=True)
+class NonlinearOptimum:
+    """Result of :func:`minimize_nonlinear`.
+
+    Attributes
+    ----------
+    values : tuple
+        Best parameter values found (as passed to ``energy``).
+    energy : float
+        Energy at ``values`` (Eh).
+    info : object
+        What ``energy`` returned beside the energy at ``values`` (``None`` if it returned a float).
+    n_evaluations : int
+        Number of calls of ``energy`` (points outside the bounds in ``"penalty"`` mode are not
+        evaluated and not counted).
+    method : str
+        ``"nelder-mead"`` or ``"brent-bounded"``.
+    success : bool
+        scipy's convergence flag of the search.
+    message : str
+        scipy's message.
+    initial : tuple
+        The start of the search (the lowest screened start).
+    virial_steps : int
+        Number of accepted virial rescalings.
+    """
+
+    values: tuple
+    energy: float
+    info: Any
+    n_evaluations: int
+    method: str
+    success: bool
+    message: str
+    initial: tuple
+    virial_steps: int = 0
+
+
+def minimize_nonlinear(energy: Callable[[tuple], Any], starts: Sequence[Sequence[float]], *,
+                       encode: Callable[[tuple], Sequence[float]],
+                       decode: Callable[[np.ndarray], tuple],
+                       lower=None, upper=None, outside: str = "penalty", penalty: float = 1e6,
+                       failure: float = 1e6, screen_starts: bool = True,
+                       step: float | None = 0.1, xatol: float = 1e-7, fatol: float = 1e-13,
+                       max_evaluations: int = 4000, adaptive: bool = False,
+                       scalar_bounds: tuple[float, float] | None = None,
+                       scalar_grid: Sequence[float] | None = None, scalar_xatol: float = 1e-10,
+                       scalar_max_iterations: int = 500,
+                       virial: Callable[[Any], float] | None = None, scaled=None,
+                       virial_steps: int = 3, virial_tolerance: float = 1e-13,
+                       progress: Callable[[int, float], None] | None = None) -> NonlinearOptimum:
+    """Minimize ``energy(values)`` by Nelder–Mead (or Brent in one coordinate), then rescale.
+
+    Parameters
+    ----------
+    energy : callable
+        ``energy(values) -> E`` or ``(E, info)`` (Eh).  Raising :class:`TwoelError` or returning a
+        non-finite ``E`` marks a failed point (value ``failure`` for the search, never the best).
+    starts : sequence of value tuples
+        Starting parameter values; with ``screen_starts`` each is evaluated and the lowest (the
+        first of equals) starts the search, else only the first is used.
+    encode, decode : callable
+        Parameter values -> search coordinates and back.
+    lower, upper : array_like, optional
+        Bounds of the search coordinates.  ``outside="penalty"``: a point not strictly inside
+        gets ``penalty`` without evaluation; ``"clip"``: it is clipped and evaluated.
+    step : float or None
+        Edge of the initial simplex along each coordinate (``None``: scipy's default simplex).
+    xatol, fatol, max_evaluations, adaptive
+        Nelder–Mead options (``fatol`` in Eh; ``max_evaluations`` counts objective calls).
+    scalar_bounds : (float, float), optional
+        Bounds of a one-coordinate search (default ``lower``, ``upper``).
+    scalar_grid : sequence of float, optional
+        Offsets from the start evaluated first in one coordinate; Brent then searches between the
+        neighbours of the lowest (the whole bounds if it lies on the edge).
+    virial : callable, optional
+        ``virial(info) -> λ`` at the best point; enables the rescaling of the values marked by
+        ``scaled`` (a boolean mask, default all) by ``λ``.
+    virial_steps, virial_tolerance
+        At most this many rescalings; stop when ``|λ - 1| < virial_tolerance`` or no gain.
+    progress : callable, optional
+        ``progress(n_evaluations, best_energy)`` after every evaluation.
+
+    Returns
+    -------
+    NonlinearOptimum
+
+    Raises
+    ------
+    ConvergenceError
+        If no evaluated point gave a finite energy.
+    """
+    if outside not in ("penalty", "clip"):
+        raise ValueError(f"outside must be 'penalty' or 'clip', got {outside!r}")
+    lo = None if lower is None else np.asarray(lower, dtype=float)
+    hi = None if upper is None else np.asarray(upper, dtype=float)
+    state = {"count": 0, "energy": math.inf, "values": None, "info": None}
+
+    def evaluate(values) -> float:
+        state["count"] += 1
+        try:
+            out = energy(values)
+            e, info = (out if isinstance(out, tuple) else (out, None))
+            e = float(e)
+        except TwoelError:
+            e, info = math.nan, None
+        if math.isfinite(e):
+            if e < state["energy"]:
+                state.update(energy=e, values=values, info=info)
+        else:
+            e = failure
+        if progress is not None:
+            progress(state["count"], state["energy"])
+        return e
+
+    def objective(x):
+        x = np.atleast_1d(x)
+        if lo is not None and hi is not None:
+            if outside == "clip":
+                x = np.clip(x, lo, hi)
+            elif not np.all((lo < x) & (x < hi)):
+                return penalty
+        return evaluate(decode(x))
+
+    starts = [tuple(s) for s in starts]
+    if not starts:
+        raise ValueError("minimize_nonlinear needs at least one start")
+    if screen_starts:
+        screened = [evaluate(s) for s in starts]
+        start = starts[int(np.argmin(screened))]
+    else:
+        start = starts[0]
+    x0 = np.asarray(encode(start), dtype=float)
+    if x0.size == 1:
+        bounds = scalar_bounds if scalar_bounds is not None else (float(lo[0]), float(hi[0]))
+        a, b = bounds
+        if scalar_grid is not None:
+            grid = x0[0] + np.asarray(scalar_grid, dtype=float)
+            if lo is not None and hi is not None:
+                grid = np.clip(grid, lo[0], hi[0])
+            found = [objective(g) for g in grid]
+            i = int(np.argmin(found))
+            if i not in (0, len(grid) - 1):
+                a, b = grid[i - 1], grid[i + 1]
+        res = scipy.optimize.minimize_scalar(lambda t: objective(t), bounds=(a, b), method="bounded",
+                                             options={"xatol": scalar_xatol,
+                                                      "maxiter": scalar_max_iterations})
+        method = "brent-bounded"
+    else:
+        options = {"xatol": xatol, "fatol": fatol, "maxfev": max_evaluations}
+        if adaptive:
+            options["adaptive"] = True
+        if step is not None:
+            options["initial_simplex"] = np.array([x0, *(x0 + step * e for e in np.eye(x0.size))])
+        res = scipy.optimize.minimize(objective, x0, method="Nelder-Mead", options=options)
+        method = "nelder-mead"
+    accepted = 0
+    if virial is not None:
+        mask = (np.ones(len(start), dtype=bool) if scaled is None
+                else np.asarray(scaled, dtype=bool))
+        for _ in range(virial_steps):
+            if state["values"] is None:
+                break
+            lam = virial(state["info"])
+            if not math.isfinite(lam) or abs(lam - 1.0) < virial_tolerance:
+                break
+            before = state["energy"]
+            evaluate(tuple(v * lam if m else v for v, m in zip(state["values"], mask)))
+            if state["energy"] >= before:
+                break
+            accepted += 1
+    if state["values"] is None:
+        raise ConvergenceError("the optimizer found no parameter values with a finite energy")
+    return NonlinearOptimum(tuple(state["values"]), state["energy"], state["info"], state["count"],
+                            method, bool(res.success), str(res.message), tuple(start), accepted)
+
+
 @dataclass(frozen=True)
 class OptimizationRecord:
-    """What the optimizer did."""
+    """What the optimizer did (``initial`` and ``final`` map parameter names to values)."""
 
     method: str
     n_evaluations: int
@@ -36,7 +236,11 @@ class OptimizationRecord:
 def minimize_energy(energy: Callable[[dict], float], parameters: Sequence[Parameter],
                     progress: Callable[[int, float], None] | None = None,
                     tolerance: float = 1e-13, max_evaluations: int = 4000) -> tuple[dict, float, OptimizationRecord]:
-    """Minimize ``energy(values)`` over the parameters.
+    """Minimize ``energy(values)`` over named parameters on a log scale inside their bounds.
+
+    :func:`minimize_nonlinear` with ``x = ln(value)`` clipped to ``[ln lower, ln upper]``, a
+    simplex of edge 0.1 (or, for one parameter, a 9-point grid of ±0.4 then Brent) and no
+    virial step (the pipeline rescales after solving at the final size).
 
     Parameters
     ----------
@@ -48,6 +252,8 @@ def minimize_energy(energy: Callable[[dict], float], parameters: Sequence[Parame
         Called as ``progress(n_evaluations, best_energy)`` after each evaluation.
     tolerance : float
         Absolute energy tolerance (Eh).
+    max_evaluations : int
+        Largest number of Nelder–Mead objective calls.
 
     Returns
     -------
@@ -57,45 +263,14 @@ def minimize_energy(energy: Callable[[dict], float], parameters: Sequence[Parame
     lower = np.log([p.lower for p in parameters])
     upper = np.log([p.upper for p in parameters])
     x0 = np.log([p.initial for p in parameters])
-    count = 0
-    best = [np.inf, None]
 
-    def objective(x):
-        nonlocal count
-        x = np.clip(np.atleast_1d(x), lower, upper)
-        values = dict(zip(names, np.exp(x).tolist()))
-        count += 1
-        try:
-            e = float(energy(values))
-        except TwoelError:
-            e = np.inf
-        if not np.isfinite(e):
-            e = 1e10
-        if e < best[0]:
-            best[0], best[1] = e, values
-        if progress is not None:
-            progress(count, best[0])
-        return e
-
-    if len(parameters) == 1:
-        # bracket the minimum on a log grid around the start, then Brent
-        grid = x0[0] + np.linspace(-0.4, 0.4, 9)
-        grid = np.clip(grid, lower[0], upper[0])
-        values = [objective(g) for g in grid]
-        i = int(np.argmin(values))
-        a, b = grid[max(i - 1, 0)], grid[min(i + 1, len(grid) - 1)]
-        if i in (0, len(grid) - 1):
-            a, b = lower[0], upper[0]
-        res = scipy.optimize.minimize_scalar(objective, bounds=(a, b), method="bounded",
-                                             options={"xatol": 1e-10, "maxiter": 500})
-        method, success, message = "brent-bounded", bool(res.success), str(res.message)
-    else:
-        res = scipy.optimize.minimize(objective, x0, method="Nelder-Mead",
-                                      options={"xatol": 1e-7, "fatol": tolerance, "maxfev": max_evaluations,
-                                               "initial_simplex": x0 + np.vstack([np.zeros(len(x0)), 0.1 * np.eye(len(x0))])})
-        method, success, message = "nelder-mead", bool(res.success), str(res.message)
-    if best[1] is None:
-        raise ConvergenceError("the optimizer found no parameter values with a finite energy")
-    record = OptimizationRecord(method, count, success, message,
-                                dict(zip(names, np.exp(x0).tolist())), dict(best[1]))
-    return dict(best[1]), best[0], record
+    opt = minimize_nonlinear(lambda values: energy(dict(zip(names, values))), [tuple(np.exp(x0).tolist())],
+                             encode=lambda values: x0, decode=lambda x: tuple(np.exp(x).tolist()),
+                             lower=lower, upper=upper, outside="clip", failure=1e10,
+                             screen_starts=False, step=0.1, xatol=1e-7, fatol=tolerance,
+                             max_evaluations=max_evaluations,
+                             scalar_grid=np.linspace(-0.4, 0.4, 9), progress=progress)
+    best = dict(zip(names, opt.values))
+    record = OptimizationRecord(opt.method, opt.n_evaluations, opt.success, opt.message,
+                                dict(zip(names, np.exp(x0).tolist())), dict(best))
+    return dict(best), opt.energy, record

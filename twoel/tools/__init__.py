@@ -1,3 +1,4 @@
-"""Developer tools, apart from the runtime package: re-tuning the stored exponent boxes.
+"""Developer tools (re-tuning the stored exponent boxes): not part of the runtime package API.
 
-Nothing in the solve path imports this package."""
+Nothing in twoel imports this package (the solve path, the command line and the report never
+do); run the tools as ``python -m twoel.tools.tune_boxes ...``."""
