@@ -27,7 +27,7 @@ from twoel.basis.base import Parameter, TrialFamily
 from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
-from twoel.solver.optimize import minimize_energy
+from twoel.solver.optimize import minimize_energy, virial_scale
 from twoel.solver.error_bar import nested_error_bar
 from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
                                  starting_condition_digits, truncate_text)
@@ -180,7 +180,7 @@ def _virial_rescale(plan: _Plan, solved: _Solved, record: dict | None) -> _Solve
     if not plan.do_optimize or not all(p.kind == "exponent" for p in plan.params) \
             or solved.kinetic <= 0:
         return solved
-    scale = -solved.potential / (2.0 * solved.kinetic)
+    scale = virial_scale(solved.kinetic, solved.potential)
     try:
         scaled = _solve_at(plan, {k: v * scale for k, v in solved.values.items()})
     except Exception:  # a rescaled point that fails is simply not taken
