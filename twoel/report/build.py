@@ -108,6 +108,52 @@ def _solve_keywords(section: dict, size=None) -> dict:
     return keywords
 
 
+def _one_charge(section: str, mapping: dict) -> float:
+    """Check the settings of a one-ion ``section`` and return its single charge."""
+    _check_keys(section, mapping, _SECTION_KEYS[section])
+    charges = _charges(mapping.get("Z"), section)
+    if len(charges) != 1:
+        raise InputError(f"{section}.Z must be one charge")
+    return charges[0]
+
+
+def _normalize_series(s: dict) -> dict:
+    _check_keys("series", s, _SECTION_KEYS["series"])
+    return {**{k: s[k] for k in _SOLVE_KEYS if k in s}, "Z": _charges(s.get("Z"), "series")}
+
+
+def _normalize_convergence(c: dict) -> dict:
+    charge = _one_charge("convergence", c)
+    sizes = c.get("sizes")
+    if not isinstance(sizes, list) or not sizes or not all(isinstance(n, int) and not isinstance(n, bool) for n in sizes):
+        raise InputError("convergence.sizes must be a non-empty list of integers")
+    if sorted(set(sizes)) != sizes:
+        raise InputError("convergence.sizes must increase strictly")
+    return {**{k: c[k] for k in _SOLVE_KEYS if k in c and k != "size"}, "Z": charge, "sizes": list(sizes)}
+
+
+def _normalize_levels(lv: dict) -> dict:
+    charge = _one_charge("levels", lv)
+    states = lv.get("states")
+    if not isinstance(states, list) or not states:
+        raise InputError("levels.states must be a non-empty list of {state, size} entries")
+    clean = []
+    for i, entry in enumerate(states):
+        if isinstance(entry, str):
+            entry = {"state": entry}
+        _check_keys(f"levels.states[{i}]", entry, {"state", "size"})
+        if "state" not in entry:
+            raise InputError(f"levels.states[{i}] needs a 'state'")
+        clean.append({"state": str(entry["state"]), "size": entry.get("size")})
+    return {**{k: lv[k] for k in ("family", "parameters", "optimize", "options") if k in lv},
+            "Z": charge, "states": clean}
+
+
+#: section name -> its normalizer, in the order the sections appear in a report
+_SECTION_NORMALIZERS = {"series": _normalize_series, "convergence": _normalize_convergence,
+                        "levels": _normalize_levels}
+
+
 def normalize_config(config: dict) -> dict:
     """Validate a report configuration and make every choice explicit (a new dict).
 
@@ -121,45 +167,11 @@ def normalize_config(config: dict) -> dict:
         raise InputError(f"report name {name!r} may hold only letters, digits, '-', '_' and '.'")
     out = {"name": name, "title": str(config.get("title") or name),
            "scenario": str(config.get("scenario") or "")}
-    if not any(k in config for k in ("series", "convergence", "levels")):
+    if not any(k in config for k in _SECTION_NORMALIZERS):
         raise InputError("the report configuration needs at least one of: series, convergence, levels")
-    if "series" in config:
-        s = config["series"]
-        _check_keys("series", s, _SECTION_KEYS["series"])
-        out["series"] = {**{k: s[k] for k in _SOLVE_KEYS if k in s},
-                         "Z": _charges(s.get("Z"), "series")}
-    if "convergence" in config:
-        c = config["convergence"]
-        _check_keys("convergence", c, _SECTION_KEYS["convergence"])
-        charges = _charges(c.get("Z"), "convergence")
-        if len(charges) != 1:
-            raise InputError("convergence.Z must be one charge")
-        sizes = c.get("sizes")
-        if not isinstance(sizes, list) or not sizes or not all(isinstance(n, int) and not isinstance(n, bool) for n in sizes):
-            raise InputError("convergence.sizes must be a non-empty list of integers")
-        if sorted(set(sizes)) != sizes:
-            raise InputError("convergence.sizes must increase strictly")
-        out["convergence"] = {**{k: c[k] for k in _SOLVE_KEYS if k in c and k != "size"},
-                              "Z": charges[0], "sizes": list(sizes)}
-    if "levels" in config:
-        lv = config["levels"]
-        _check_keys("levels", lv, _SECTION_KEYS["levels"])
-        charges = _charges(lv.get("Z"), "levels")
-        if len(charges) != 1:
-            raise InputError("levels.Z must be one charge")
-        states = lv.get("states")
-        if not isinstance(states, list) or not states:
-            raise InputError("levels.states must be a non-empty list of {state, size} entries")
-        clean = []
-        for i, entry in enumerate(states):
-            if isinstance(entry, str):
-                entry = {"state": entry}
-            _check_keys(f"levels.states[{i}]", entry, {"state", "size"})
-            if "state" not in entry:
-                raise InputError(f"levels.states[{i}] needs a 'state'")
-            clean.append({"state": str(entry["state"]), "size": entry.get("size")})
-        out["levels"] = {**{k: lv[k] for k in ("family", "parameters", "optimize", "options") if k in lv},
-                         "Z": charges[0], "states": clean}
+    for section, normalize in _SECTION_NORMALIZERS.items():
+        if section in config:
+            out[section] = normalize(config[section])
     return out
 
 
