@@ -24,11 +24,12 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass, field
+from typing import ClassVar
 
 from twoel.checking.rows import EnergyRow
 from twoel.scf.correlation import exact_reference, hartree_fock_reference
 from twoel.errors import InputError
-from twoel.results import agreeing_digits
+from twoel.results import Result, agreeing_digits
 from twoel.system import Ion, State
 from twoel.units import ENERGY_UNITS, UNIT_LABELS, canonical_unit, convert_energy, to_hartree
 
@@ -57,9 +58,44 @@ class Flag:
         return {"code": self.code, "explanation": self.explanation}
 
 
-@dataclass(frozen=True)
-class CheckResult:
-    """Verdict on one energy (all energies in hartree unless named otherwise)."""
+@dataclass(frozen=True, repr=False)
+class CheckResult(Result):
+    """Verdict on one energy printed by another program (energies in hartree, Eh).
+
+    Attributes
+    ----------
+    Z : float
+        Nuclear charge.
+    ion, state, label : str
+        Ion label (``He``, ``Li+``), term symbol and the free-text method/basis label.
+    energy_input : float
+        The energy as given, in ``unit`` (JSON key ``energy``).
+    unit : str
+        Canonical unit name of ``energy_input`` (:func:`twoel.units.canonical_unit`).
+    energy_hartree : float
+        ``energy_input`` converted to Eh with ``unit``.
+    exact_hartree, hartree_fock_hartree : float or None
+        Tabulated exact nonrelativistic energy and Hartree–Fock limit (Eh).
+    difference_hartree : float or None
+        ``E - E_exact`` (Eh), positive for a variational upper bound; ``error_hartree`` is its
+        old name, kept as an alias in ``to_dict()`` and as an attribute.
+    error_vs_hartree_fock_hartree : float or None
+        ``E - E_HF`` (Eh), negative when some correlation energy is recovered.
+    correlation_hartree : float or None
+        The full correlation energy ``E_exact - E_HF`` (Eh).
+    correlation_recovered_percent : float or None
+        ``100 (E_HF - E)/(E_HF - E_exact)`` (%).
+    agreeing_digits : int or None
+        Leading significant digits shared with ``E_exact``.
+    threshold_hartree : float
+        ``-Z²/2`` (Eh), the one-electron ion plus a free electron.
+    flags : tuple of Flag
+        Verdicts with plain explanations (:data:`FLAG_CODES`).
+    """
+
+    #: old name -> current name (both in ``to_dict()``)
+    ALIASES: ClassVar[dict[str, str]] = {"error_hartree": "difference_hartree"}
+    SUMMARY: ClassVar[tuple[str, ...]] = ("ion", "state", "energy_hartree", "difference_hartree")
 
     Z: float
     ion: str
@@ -70,7 +106,7 @@ class CheckResult:
     energy_hartree: float
     exact_hartree: float | None
     hartree_fock_hartree: float | None
-    error_hartree: float | None
+    difference_hartree: float | None
     error_vs_hartree_fock_hartree: float | None
     correlation_hartree: float | None
     correlation_recovered_percent: float | None
@@ -85,17 +121,23 @@ class CheckResult:
     extra: dict = field(default_factory=dict)
 
     @property
+    def error_hartree(self) -> float | None:
+        """Old name of :attr:`difference_hartree` (``E - E_exact``, Eh)."""
+        return self.difference_hartree
+
+    @property
     def flag_codes(self) -> tuple[str, ...]:
         return tuple(f.code for f in self.flags)
 
     def to_dict(self) -> dict:
-        return {
+        """JSON-ready dictionary (one record of ``twoel check --json``)."""
+        return self._with_aliases({
             "row": self.row, "label": self.label, "Z": self.Z, "ion": self.ion,
             "state": self.state, "energy": self.energy_input,
             "energy_text": self.energy_text, "unit": self.unit,
             "energy_hartree": self.energy_hartree, "exact_hartree": self.exact_hartree,
             "hartree_fock_hartree": self.hartree_fock_hartree,
-            "error_hartree": self.error_hartree,
+            "difference_hartree": self.difference_hartree,
             "error_vs_hartree_fock_hartree": self.error_vs_hartree_fock_hartree,
             "correlation_hartree": self.correlation_hartree,
             "correlation_recovered_percent": self.correlation_recovered_percent,
@@ -105,7 +147,7 @@ class CheckResult:
             "suggested_unit": self.suggested_unit,
             "exact_source": self.exact_source, "hartree_fock_source": self.hartree_fock_source,
             "extra": dict(self.extra),
-        }
+        })
 
 
 def _printed_half_unit(text: str, unit: str) -> float:
@@ -235,7 +277,7 @@ def check_energy(Z, energy: float, unit: str = "hartree", state: str = "1^1S", l
     return CheckResult(
         Z=ion.Z, ion=ion.label, state=st.label, label=label, energy_input=float(energy),
         unit=unit, energy_hartree=e_h, exact_hartree=None if exact is None else exact.value,
-        hartree_fock_hartree=None if hf is None else hf.value, error_hartree=error,
+        hartree_fock_hartree=None if hf is None else hf.value, difference_hartree=error,
         error_vs_hartree_fock_hartree=error_hf, correlation_hartree=corr,
         correlation_recovered_percent=percent, agreeing_digits=digits,
         threshold_hartree=threshold, flags=tuple(flags), suggested_unit=suggested,

@@ -28,10 +28,12 @@ import platform
 import sys
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import ClassVar
 
 from twoel import constants
 from twoel._version import __version__
 from twoel.errors import InputError
+from twoel.results import Result
 
 PROVENANCE_FORMAT = "twoel-report-provenance"
 PROVENANCE_VERSION = 1
@@ -221,9 +223,27 @@ def package_versions() -> dict[str, str | None]:
     return versions
 
 
-@dataclass(frozen=True)
-class ReportResult:
-    """What :func:`build_report` wrote."""
+@dataclass(frozen=True, repr=False)
+class ReportResult(Result):
+    """What :func:`build_report` wrote.
+
+    Attributes
+    ----------
+    path : pathlib.Path
+        The report folder.
+    files : tuple of str
+        The files written, relative to ``path``.
+    numbers : dict
+        Every float of every table, ``{table: {column: [values]}}``, each in the unit its column
+        name carries (``energy_hartree`` in Eh, ``ionization_energy_cm1`` in cm⁻¹ ...).
+    reproduction : dict or None
+        After :func:`rebuild_from_provenance`: ``{"identical", "compared", "differences",
+        "package_changes"}``.
+    notes : tuple of str
+        The notes shown on the index page.
+    """
+
+    SUMMARY: ClassVar[tuple[str, ...]] = ("path",)
 
     path: Path
     files: tuple[str, ...]
@@ -232,8 +252,10 @@ class ReportResult:
     notes: tuple[str, ...] = field(default=())
 
     def to_dict(self) -> dict:
-        return {"path": str(self.path), "files": list(self.files), "numbers": self.numbers,
-                "reproduction": self.reproduction, "notes": list(self.notes)}
+        """JSON-ready dictionary (the folder as text)."""
+        return self._with_aliases({"path": str(self.path), "files": list(self.files),
+                                   "numbers": self.numbers, "reproduction": self.reproduction,
+                                   "notes": list(self.notes)})
 
 
 def _hartree_fock_limits(charges) -> dict:
