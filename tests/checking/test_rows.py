@@ -171,10 +171,6 @@ def test_huge_file_by_rows(monkeypatch):
         parse_json_text(json.dumps([{"Z": 2, "energy": -2.9, "unit": "hartree"}] * 6))
 
 
-def test_default_limits_are_the_documented_ones():
-    assert check_input.MAX_ROWS == 100_000 and check_input.MAX_BYTES == 20 * 1024 * 1024
-
-
 def test_read_rows_files(tmp_path):
     csv_path = tmp_path / "rows.csv"
     csv_path.write_text("\ufeffZ,energy,unit\n2,-2.9,hartree\n", encoding="utf-8")  # BOM tolerated

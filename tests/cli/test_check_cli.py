@@ -1,8 +1,9 @@
 """`twoel check` and `twoel hf` on the command line (output contracts and error messages).
 
-Acceptance values: He -2.9033 Eh is +0.000424 Eh above the exact energy -2.9037243770341196 Eh
-(Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)) and recovers about 99.0 % of the correlation
-energy (HF limit -2.861679995612 Eh, Froese Fischer 1977 / Bunge et al. 1992).
+Check values: He -2.9033 Eh is +4.243770e-04 Eh above the exact energy -2.9037243770341196 Eh
+(C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)) and recovers 98.991 % of the correlation
+energy (HF limit -2.861679995612 Eh: C. F. Bunge et al., Phys. Rev. A 46, 3691 (1992); digits
+from memory), by hand arithmetic on the two published values.
 """
 
 import json
@@ -37,10 +38,22 @@ def test_check_one_energy_table(capsys):
     assert "Schwartz" in out
 
 
-def test_check_flags_below_exact_in_table(capsys):
-    code, out, _ = run(capsys, "check", "--Z", "2", "--energy", "-2.90372437703425", "--unit", "hartree")
+def _flags_column(table: str) -> str:
+    """The flags cell of the one data row of a ``check`` table."""
+    header, _rule, row = table.splitlines()[:3]
+    names = [c.strip() for c in header.strip("|").split("|")]
+    return [c.strip() for c in row.strip("|").split("|")][names.index("flags")]
+
+
+@pytest.mark.parametrize("energy,flagged", [
+    ("-2.90372437703425", True),     # 1.3e-13 Eh below the exact -2.9037243770341196 (Schwartz 2006)
+    ("-2.9037243770341", False),     # 2e-14 Eh above it
+])
+def test_check_flags_below_exact_in_table(capsys, energy, flagged):
+    code, out, _ = run(capsys, "check", "--Z", "2", "--energy", energy, "--unit", "hartree")
     assert code == 0
-    assert "below_exact" in out and "not variational" in out
+    assert (_flags_column(out) == "below_exact") is flagged
+    assert ("not variational" in out) is flagged
 
 
 def test_check_mixed_unit_file_json_and_csv(tmp_path, capsys):
@@ -102,9 +115,12 @@ def test_hf_json_contract(capsys):
     code, out, err = run(capsys, "hf", "--Z", "2", "--sizes", "1,2,4:8:2", "--json")
     assert code == 0, err
     d = json.loads(out)
-    assert d["energy_hartree"] == pytest.approx(-2.861679995612, abs=2e-9)   # N = 8 basis
-    assert d["orbital_energy_hartree"] == pytest.approx(-0.91796, abs=1e-5)  # Clementi & Roetti 1974 (from memory)
+    # HF limit (Bunge et al. 1992, see above), reached to 2e-9 Eh with 8 functions
+    assert d["energy_hartree"] == pytest.approx(-2.861679995612, abs=2e-9)
+    # 1s orbital energy: E. Clementi and C. Roetti, At. Data Nucl. Data Tables 14, 177 (1974) (from memory)
+    assert d["orbital_energy_hartree"] == pytest.approx(-0.91796, abs=1e-5)
     assert [s["size"] for s in d["convergence"]] == [1, 2, 4, 6, 8]
+    # one 1s Slater function: the screened closed form E = -(Z - 5/16)²
     assert d["convergence"][0]["energy_hartree"] == pytest.approx(-(2 - 5 / 16) ** 2, abs=1e-12)
 
 

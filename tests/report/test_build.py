@@ -66,6 +66,7 @@ def test_provenance_records_everything(small_report):
     record = data["computations"]["convergence"][3]
     assert record["task"] == {"Z": 2.0, "family": "hylleraas", "size": 3}
     basis = record["result"]["provenance"]["basis"]
+    # singlet Hylleraas terms r1^i r2^j r12^k with i <= j and i + j + k <= 3: 6 + 4 + 2 + 1 = 13
     assert len(basis["powers"]) == record["result"]["n_terms"] == 13
     assert record["result"]["parameters"]["alpha"] > 0
     # the numbers block holds exactly what the CSV tables hold
@@ -261,7 +262,7 @@ def test_toml_config_and_name_option(tmp_path):
 
 def test_correlation_figure_appears_when_hartree_fock_limits_exist(tmp_path, monkeypatch):
     # HF limits: C. Froese Fischer, The Hartree-Fock Method for Atoms (Wiley, 1977); Z = 2 also
-    # Bunge et al., Phys. Rev. A 46, 3691 (1992) (values as curated in shared/REFERENCE-VALUES.md)
+    # C. F. Bunge et al., Phys. Rev. A 46, 3691 (1992) (digits from memory)
     from twoel.reference import ReferenceValue
 
     limits = {z: ReferenceValue("froesefischer1977", z, "1^1S", "hartree_fock_limit", v, repr(v), "hartree",

@@ -63,12 +63,6 @@ def test_every_figure_kind(tmp_path):
     assert len(figures["pair"][0].axes) == 2
 
 
-def test_radial_density_closed_form_is_normalized():
-    # guards the test data above: the integral of D(r) is the electron number 2
-    r = np.linspace(0, 40, 20001)
-    assert abs(np.trapezoid(_radial_density(r, 1.6875), r) - 2) < 1e-6
-
-
 def test_rendering_is_repeatable():
     fig = plots.residual_figure([1, 2, 3], [1e-5, 2e-5, 3e-5])
     assert plots.figure_bytes(fig, "svg") == plots.figure_bytes(fig, "svg")

@@ -88,7 +88,9 @@ def test_markdown_csv_json(frame):
     records = json.loads(render(frame, "json"))
     assert records[0]["energy_hartree"] == frame["energy_hartree"][0]
     assert records[1]["reference_hartree"] is None
-    assert "<table>" in render(frame, "html")
+    html = render(frame, "html")
+    assert html.count("<tr>") == 3 and html.count("<th>") == md.splitlines()[0].count("|") - 1
+    assert "<td style=\"text-align:right\">-2.903\u202f713\u202f945\u202f024(2)</td>" in html
 
 
 def test_column_choice(frame):

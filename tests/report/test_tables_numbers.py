@@ -11,7 +11,7 @@ from twoel.report.numbers import (format_uncertain, group_digits, latex_number, 
                                   round_to_decimals, text_scientific, to_decimal)
 
 
-def test_concise_notation_of_the_issue_example():
+def test_concise_notation_of_the_helium_ground_state():
     # He ground state, C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006), with a 2e-12 bar
     text = format_uncertain("-2.903724377034119598311159245194404", "2e-12")
     assert text == "-2.903724377034(2)"

@@ -36,6 +36,18 @@ def charge(text: str) -> float:
         raise argparse.ArgumentTypeError(str(exc))
 
 
+#: help of the ``--Z`` option of the commands that take any charge
+CHARGE_HELP = "nuclear charge: a number (any Z > 0) or element symbol/name"
+
+
+def add_charge_argument(parser: argparse.ArgumentParser, required: bool = True) -> None:
+    """The ``--Z`` option (a charge or an element; see :func:`charge`)."""
+    if required:
+        parser.add_argument("--Z", type=charge, required=True, help=CHARGE_HELP)
+    else:
+        parser.add_argument("--Z", type=charge, default=None, help=CHARGE_HELP)
+
+
 def parameter_assignment(text: str) -> tuple[str, float]:
     """Parse ``NAME=VALUE`` (a float) without evaluating anything."""
     if "=" not in text:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import charge, print_json
+from twoel.cli.common import add_charge_argument, print_json
 
 NAME = "converge"
 HELP = "convergence of the energy with the basis size: differences, ratios, extrapolation, error bar"
@@ -21,8 +21,7 @@ def size_list(text: str) -> list[int]:
 
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
-    p.add_argument("--Z", type=charge, required=True,
-                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_charge_argument(p)
     p.add_argument("--state", default="1^1S", help="term symbol (default 1^1S)")
     p.add_argument("--family", default="exponential", help="trial-function family (default exponential)")
     group = p.add_mutually_exclusive_group()

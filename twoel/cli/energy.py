@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import add_basis_arguments, basis_keywords, charge, energy_line, print_json
+from twoel.cli.common import add_basis_arguments, add_charge_argument, basis_keywords, energy_line, print_json
 
 NAME = "energy"
 HELP = "variational energy and ionization energy of one state of one ion"
@@ -13,8 +13,7 @@ HELP = "variational energy and ionization energy of one state of one ion"
 
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
-    p.add_argument("--Z", type=charge, required=True,
-                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_charge_argument(p)
     add_basis_arguments(p)
     p.add_argument("--precision", choices=("float64", "extended"), default="float64",
                    help="float64 (default; the exponential family adds a cheap mixed-precision "

@@ -6,7 +6,7 @@ import argparse
 import math
 import sys
 
-from twoel.cli.common import charge, energy_line, print_json, size_list
+from twoel.cli.common import add_charge_argument, energy_line, print_json, size_list
 
 NAME = "hf"
 HELP = "restricted Hartree-Fock limit of the 1s² ground state (even-tempered Slater basis)"
@@ -15,8 +15,7 @@ HELP = "restricted Hartree-Fock limit of the 1s² ground state (even-tempered Sl
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP + ". The energy is converged over "
                               "basis sizes and the convergence table is printed.")
-    p.add_argument("--Z", type=charge, default=None,
-                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_charge_argument(p, required=False)
     p.add_argument("--sizes", type=size_list, default=None,
                    help="basis sizes of the convergence study, e.g. '1,2,4:14:2' (the default)")
     p.add_argument("--split-shell", action="store_true",

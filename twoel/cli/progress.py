@@ -8,24 +8,34 @@ import time
 
 
 @contextlib.contextmanager
-def optimizer_progress(enabled: bool = True):
-    """Yield a ``progress(n, best_energy)`` callback that updates a tqdm line, or ``None``."""
+def _bar(enabled: bool, description: str, unit: str):
+    """Yield a tqdm bar on an interactive stderr (closed on exit), or ``None``."""
     if not enabled or not sys.stderr.isatty():
         yield None
         return
     from tqdm import tqdm
 
-    bar = tqdm(desc="optimizing", unit="eval", file=sys.stderr, leave=False)
-
-    def update(n: int, best: float) -> None:
-        bar.n = n
-        bar.set_postfix_str(f"E = {best:.12f}", refresh=False)
-        bar.refresh()
-
+    bar = tqdm(desc=description, unit=unit, file=sys.stderr, leave=False)
     try:
-        yield update
+        yield bar
     finally:
         bar.close()
+
+
+@contextlib.contextmanager
+def optimizer_progress(enabled: bool = True):
+    """Yield a ``progress(n, best_energy)`` callback that updates a tqdm line, or ``None``."""
+    with _bar(enabled, "optimizing", "eval") as bar:
+        if bar is None:
+            yield None
+            return
+
+        def update(n: int, best: float) -> None:
+            bar.n = n
+            bar.set_postfix_str(f"E = {best:.12f}", refresh=False)
+            bar.refresh()
+
+        yield update
 
 
 @contextlib.contextmanager
@@ -35,23 +45,18 @@ def counter(description: str, enabled: bool = True, unit: str = "it"):
     Given ``done`` (and ``total``) the bar is set to them, as the sweeps and convergence studies
     of the core report; called without them it advances by one.
     """
-    if not enabled or not sys.stderr.isatty():
-        yield None
-        return
-    from tqdm import tqdm
+    with _bar(enabled, description, unit) as bar:
+        if bar is None:
+            yield None
+            return
 
-    bar = tqdm(desc=description, unit=unit, file=sys.stderr, leave=False)
+        def update(done: int | None = None, total: int | None = None) -> None:
+            if total is not None:
+                bar.total = total
+            bar.n = bar.n + 1 if done is None else done
+            bar.refresh()
 
-    def update(done: int | None = None, total: int | None = None) -> None:
-        if total is not None:
-            bar.total = total
-        bar.n = bar.n + 1 if done is None else done
-        bar.refresh()
-
-    try:
         yield update
-    finally:
-        bar.close()
 
 
 def stage_reporter(enabled: bool = True):

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import charge, positive_int, print_json
+from twoel.cli.common import add_charge_argument, positive_int, print_json
 
 NAME = "properties"
 HELP = "expectation values (<r>, <1/r12>, delta functions, <grad1.grad2>, ...) and cusp/virial diagnostics"
@@ -28,8 +28,7 @@ _ROWS = (
 
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
-    p.add_argument("--Z", type=charge, required=True,
-                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_charge_argument(p)
     p.add_argument("--state", default="1^1S", help="term symbol: 1^1S (default), 2^3S, 2^1P ...")
     p.add_argument("--family", default=None, help="trial family (default: exponential, else hylleraas)")
     p.add_argument("--size", type=positive_int, default=None, help="basis size")

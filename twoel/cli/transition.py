@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import charge, positive_int, print_json
+from twoel.cli.common import add_charge_argument, positive_int, print_json
 
 NAME = "transition"
 HELP = "energy difference (Eh, cm⁻¹, eV, THz) and vacuum wavelength between two states of one ion"
@@ -13,8 +13,7 @@ HELP = "energy difference (Eh, cm⁻¹, eV, THz) and vacuum wavelength between t
 
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
-    p.add_argument("--Z", type=charge, required=True,
-                   help="nuclear charge: a number (any Z > 0) or element symbol/name")
+    add_charge_argument(p)
     p.add_argument("--from", dest="from_state", required=True, help="lower (initial) state, e.g. 2^3S")
     p.add_argument("--to", dest="to_state", required=True, help="upper (final) state, e.g. 2^3P")
     p.add_argument("--family", default=None,

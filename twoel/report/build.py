@@ -28,10 +28,12 @@ import platform
 import sys
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import ClassVar
 
 from twoel import constants
 from twoel._version import __version__
 from twoel.errors import InputError
+from twoel.results import Result
 
 PROVENANCE_FORMAT = "twoel-report-provenance"
 PROVENANCE_VERSION = 1
@@ -108,6 +110,52 @@ def _solve_keywords(section: dict, size=None) -> dict:
     return keywords
 
 
+def _one_charge(section: str, mapping: dict) -> float:
+    """Check the settings of a one-ion ``section`` and return its single charge."""
+    _check_keys(section, mapping, _SECTION_KEYS[section])
+    charges = _charges(mapping.get("Z"), section)
+    if len(charges) != 1:
+        raise InputError(f"{section}.Z must be one charge")
+    return charges[0]
+
+
+def _normalize_series(s: dict) -> dict:
+    _check_keys("series", s, _SECTION_KEYS["series"])
+    return {**{k: s[k] for k in _SOLVE_KEYS if k in s}, "Z": _charges(s.get("Z"), "series")}
+
+
+def _normalize_convergence(c: dict) -> dict:
+    charge = _one_charge("convergence", c)
+    sizes = c.get("sizes")
+    if not isinstance(sizes, list) or not sizes or not all(isinstance(n, int) and not isinstance(n, bool) for n in sizes):
+        raise InputError("convergence.sizes must be a non-empty list of integers")
+    if sorted(set(sizes)) != sizes:
+        raise InputError("convergence.sizes must increase strictly")
+    return {**{k: c[k] for k in _SOLVE_KEYS if k in c and k != "size"}, "Z": charge, "sizes": list(sizes)}
+
+
+def _normalize_levels(lv: dict) -> dict:
+    charge = _one_charge("levels", lv)
+    states = lv.get("states")
+    if not isinstance(states, list) or not states:
+        raise InputError("levels.states must be a non-empty list of {state, size} entries")
+    clean = []
+    for i, entry in enumerate(states):
+        if isinstance(entry, str):
+            entry = {"state": entry}
+        _check_keys(f"levels.states[{i}]", entry, {"state", "size"})
+        if "state" not in entry:
+            raise InputError(f"levels.states[{i}] needs a 'state'")
+        clean.append({"state": str(entry["state"]), "size": entry.get("size")})
+    return {**{k: lv[k] for k in ("family", "parameters", "optimize", "options") if k in lv},
+            "Z": charge, "states": clean}
+
+
+#: section name -> its normalizer, in the order the sections appear in a report
+_SECTION_NORMALIZERS = {"series": _normalize_series, "convergence": _normalize_convergence,
+                        "levels": _normalize_levels}
+
+
 def normalize_config(config: dict) -> dict:
     """Validate a report configuration and make every choice explicit (a new dict).
 
@@ -121,45 +169,11 @@ def normalize_config(config: dict) -> dict:
         raise InputError(f"report name {name!r} may hold only letters, digits, '-', '_' and '.'")
     out = {"name": name, "title": str(config.get("title") or name),
            "scenario": str(config.get("scenario") or "")}
-    if not any(k in config for k in ("series", "convergence", "levels")):
+    if not any(k in config for k in _SECTION_NORMALIZERS):
         raise InputError("the report configuration needs at least one of: series, convergence, levels")
-    if "series" in config:
-        s = config["series"]
-        _check_keys("series", s, _SECTION_KEYS["series"])
-        out["series"] = {**{k: s[k] for k in _SOLVE_KEYS if k in s},
-                         "Z": _charges(s.get("Z"), "series")}
-    if "convergence" in config:
-        c = config["convergence"]
-        _check_keys("convergence", c, _SECTION_KEYS["convergence"])
-        charges = _charges(c.get("Z"), "convergence")
-        if len(charges) != 1:
-            raise InputError("convergence.Z must be one charge")
-        sizes = c.get("sizes")
-        if not isinstance(sizes, list) or not sizes or not all(isinstance(n, int) and not isinstance(n, bool) for n in sizes):
-            raise InputError("convergence.sizes must be a non-empty list of integers")
-        if sorted(set(sizes)) != sizes:
-            raise InputError("convergence.sizes must increase strictly")
-        out["convergence"] = {**{k: c[k] for k in _SOLVE_KEYS if k in c and k != "size"},
-                              "Z": charges[0], "sizes": list(sizes)}
-    if "levels" in config:
-        lv = config["levels"]
-        _check_keys("levels", lv, _SECTION_KEYS["levels"])
-        charges = _charges(lv.get("Z"), "levels")
-        if len(charges) != 1:
-            raise InputError("levels.Z must be one charge")
-        states = lv.get("states")
-        if not isinstance(states, list) or not states:
-            raise InputError("levels.states must be a non-empty list of {state, size} entries")
-        clean = []
-        for i, entry in enumerate(states):
-            if isinstance(entry, str):
-                entry = {"state": entry}
-            _check_keys(f"levels.states[{i}]", entry, {"state", "size"})
-            if "state" not in entry:
-                raise InputError(f"levels.states[{i}] needs a 'state'")
-            clean.append({"state": str(entry["state"]), "size": entry.get("size")})
-        out["levels"] = {**{k: lv[k] for k in ("family", "parameters", "optimize", "options") if k in lv},
-                         "Z": charges[0], "states": clean}
+    for section, normalize in _SECTION_NORMALIZERS.items():
+        if section in config:
+            out[section] = normalize(config[section])
     return out
 
 
@@ -209,9 +223,27 @@ def package_versions() -> dict[str, str | None]:
     return versions
 
 
-@dataclass(frozen=True)
-class ReportResult:
-    """What :func:`build_report` wrote."""
+@dataclass(frozen=True, repr=False)
+class ReportResult(Result):
+    """What :func:`build_report` wrote.
+
+    Attributes
+    ----------
+    path : pathlib.Path
+        The report folder.
+    files : tuple of str
+        The files written, relative to ``path``.
+    numbers : dict
+        Every float of every table, ``{table: {column: [values]}}``, each in the unit its column
+        name carries (``energy_hartree`` in Eh, ``ionization_energy_cm1`` in cm⁻¹ ...).
+    reproduction : dict or None
+        After :func:`rebuild_from_provenance`: ``{"identical", "compared", "differences",
+        "package_changes"}``.
+    notes : tuple of str
+        The notes shown on the index page.
+    """
+
+    SUMMARY: ClassVar[tuple[str, ...]] = ("path",)
 
     path: Path
     files: tuple[str, ...]
@@ -220,8 +252,10 @@ class ReportResult:
     notes: tuple[str, ...] = field(default=())
 
     def to_dict(self) -> dict:
-        return {"path": str(self.path), "files": list(self.files), "numbers": self.numbers,
-                "reproduction": self.reproduction, "notes": list(self.notes)}
+        """JSON-ready dictionary (the folder as text)."""
+        return self._with_aliases({"path": str(self.path), "files": list(self.files),
+                                   "numbers": self.numbers, "reproduction": self.reproduction,
+                                   "notes": list(self.notes)})
 
 
 def _hartree_fock_limits(charges) -> dict:
@@ -402,6 +436,174 @@ def _bib_entries(keys) -> str:
     return "\n\n".join(entries) + "\n"
 
 
+def _solve_sections(sections: dict, jobs, progress) -> tuple[list, dict]:
+    """Solve every task of every section (a task asked for by two sections is solved once).
+
+    Returns the results in task order and the results by section.
+    """
+    from twoel.analysis.sweep import solve_many
+
+    flat = [(name, task) for name, tasks in sections.items() for task in tasks]
+    unique: dict[str, dict] = {}
+    for _name, task in flat:
+        unique.setdefault(json.dumps(task, sort_keys=True), task)
+    solved = dict(zip(unique, solve_many(list(unique.values()), jobs=jobs, progress=progress,
+                                         description="report")))
+    results = [solved[json.dumps(task, sort_keys=True)] for _name, task in flat]
+    by_section: dict[str, list] = {}
+    for (name, _task), result in zip(flat, results):
+        by_section.setdefault(name, []).append(result)
+    return results, by_section
+
+
+def _series_section(folder: Path, section: dict, results: list, page: _Page):
+    """Series table, residual figure and (given two HF limits) correlation figure.
+
+    Returns the frame, the files written and the HF limits cited.
+    """
+    from twoel.analysis.sweep import series_frame
+    from twoel.report import plots
+
+    frame = series_frame(section["Z"], {}, results=results)
+    page.heading(2, "Isoelectronic sequence")
+    files = _write_table(folder, "series", frame, SERIES_COLUMNS,
+                         f"{frame['state'].iloc[0]} energies along the sequence, family "
+                         f"{frame['family'].iloc[0]}, size {frame['size'].iloc[0]}", page)
+    with_ref = frame.dropna(subset=["reference_hartree"])
+    if len(with_ref):
+        fig = plots.residual_figure(with_ref["Z"], with_ref["difference_hartree"])
+        files += _write_figure(folder, "residuals", fig,
+                               "Distance of the variational energies from the published values", page)
+    hf_refs = []
+    hf = _hartree_fock_limits(list(frame["Z"]))
+    if len(hf) >= 2:
+        rows = frame[frame["Z"].isin(list(hf))]
+        refs = rows["reference_hartree"]
+        hf_refs.extend(hf[z] for z in rows["Z"])
+        fig = plots.correlation_figure(rows["Z"], rows["energy_hartree"], [hf[z].value for z in rows["Z"]],
+                                       reference_hartree=None if refs.isna().any() else refs)
+        files += _write_figure(folder, "correlation", fig,
+                               "Correlation energy: computed and published energies minus the "
+                               "Hartree-Fock limits of data/hartree_fock_limits.csv", page)
+    return frame, files, hf_refs
+
+
+def _convergence_section(folder: Path, section: dict, results: list, page: _Page):
+    """Convergence table and figure; returns the frame, the files written and a note."""
+    from twoel.analysis.sweep import convergence_frame
+    from twoel.report import plots
+
+    frame = convergence_frame(section["Z"], section["sizes"], {}, results=results)
+    page.heading(2, "Convergence with the basis")
+    files = _write_table(folder, "convergence", frame, CONVERGENCE_COLUMNS,
+                         f"{frame['ion'].iloc[0]} {frame['state'].iloc[0]}: energy against "
+                         f"the size parameter of family {frame['family'].iloc[0]}", page)
+    extrapolated = frame["extrapolated_hartree"].dropna()
+    ref = frame["reference_hartree"].iloc[0]
+    fig = plots.convergence_figure(frame["n_terms"], frame["energy_hartree"],
+                                   reference_hartree=None if ref is None or math.isnan(ref) else ref,
+                                   extrapolated_hartree=extrapolated.iloc[-1] if len(extrapolated) else None)
+    files += _write_figure(folder, "convergence", fig,
+                           "Increments, error against the reference and distance to the "
+                           "geometric (Aitken) limit estimate, against the number of terms", page)
+    note = ("The extrapolated values are Aitken estimates from three successive sizes; "
+            "they are a guide, not an error bar.")
+    return frame, files, note
+
+
+def _levels_section(folder: Path, results: list, page: _Page):
+    """Levels table and diagram; returns the frame and the files written."""
+    from twoel.report import plots
+
+    frame = _level_frame(results)
+    page.heading(2, "Computed levels")
+    files = _write_table(folder, "levels", frame, LEVEL_COLUMNS,
+                         f"Computed levels of {frame['ion'].iloc[0]}", page)
+    first = results[0]
+    thresholds = {f"one-electron threshold -Z²/2 = {first.threshold_hartree:g} Eh": first.threshold_hartree}
+    fig = plots.level_diagram_figure(frame["state"], frame["energy_hartree"], thresholds)
+    files += _write_figure(folder, "levels", fig, "Computed levels (Eh)", page)
+    return frame, files
+
+
+def _result_notes(by_section: dict, results: list) -> list[str]:
+    """Notes on bases far from converged (> 1 mEh above the published value) and solver warnings."""
+    notes = []
+    checked = by_section.get("series", []) + by_section.get("levels", [])
+    for result in {id(r): r for r in checked}.values():
+        if result.difference_hartree is not None and abs(result.difference_hartree) > 1e-3:
+            notes.append(f"{result.ion} {result.state} (size {result.size}) is {result.difference_hartree:.1e} Eh "
+                         "above the published value: this basis is far from converged for it.")
+    for result in {id(r): r for r in results}.values():
+        for text in result.warnings:
+            notes.append(f"{result.ion} {result.state} (size {result.size}): {text}")
+    return notes
+
+
+def _references_section(folder: Path, cited: list, page: _Page) -> list[str]:
+    """``references.bib`` and the References list of the cited values; returns the files written."""
+    from twoel.io import atomic_write_text
+
+    keys = sorted({ref.key for ref in cited})
+    if not keys:
+        return []
+    atomic_write_text(folder / "references.bib", _bib_entries(keys))
+    sources = {}
+    for ref in cited:
+        entry = sources.setdefault(ref.key, [ref.source, False])
+        entry[1] |= "from memory" in ref.note.lower()
+    page.heading(2, "References")
+    page.items(f"[{key}] {src}" + (" (some values quoted from memory; see the note "
+                                   "column of the tables in data/)" if memory else "")
+               for key, (src, memory) in sorted(sources.items()))
+    page.paragraph("BibTeX entries for these keys (cited by the .tex tables): references.bib.")
+    return ["references.bib"]
+
+
+def _reproduce_section(page: _Page, out: Path) -> None:
+    page.heading(2, "Reproduce")
+    page.paragraph("provenance.json holds the package versions, the CODATA constants, this "
+                   "report's configuration, every parameter and basis definition, and every "
+                   "number above. Re-run it and compare every number bit for bit with:")
+    page.code(f"twoel report --from-provenance {out.as_posix()}/provenance.json --out {out.name}-rerun")
+
+
+def _provenance(config: dict, sections: dict, by_section: dict, numbers: dict) -> dict:
+    """The provenance record: versions, constants, configuration, every solve and every number."""
+    return {
+        "format": PROVENANCE_FORMAT, "format_version": PROVENANCE_VERSION,
+        "generator": f"twoel {__version__} (twoel report)",
+        "packages": package_versions(), "platform": platform.platform(),
+        "python_implementation": sys.implementation.name,
+        "constants": constants.provenance(),
+        "config": config,
+        "computations": {name: [_result_record(t, r) for t, r in zip(sections[name], by_section[name])]
+                         for name in sections},
+        "numbers": numbers,
+    }
+
+
+def _write_sections(folder: Path, config: dict, by_section: dict, page: _Page):
+    """The table and figure sections present in the configuration, in report order.
+
+    Returns the frames by section, the files written, the notes and the HF limits cited.
+    """
+    frames, files, notes, hf_refs = {}, [], [], []
+    if "series" in by_section:
+        frames["series"], written, hf_refs = _series_section(folder, config["series"],
+                                                             by_section["series"], page)
+        files += written
+    if "convergence" in by_section:
+        frames["convergence"], written, note = _convergence_section(
+            folder, config["convergence"], by_section["convergence"], page)
+        files += written
+        notes.append(note)
+    if "levels" in by_section:
+        frames["levels"], written = _levels_section(folder, by_section["levels"], page)
+        files += written
+    return frames, files, notes, hf_refs
+
+
 def build_report(config: dict, out, *, overwrite: bool = False, html: bool = False,
                  jobs: int | None = 1, progress=None) -> ReportResult:
     """Compute and write a report folder.
@@ -426,26 +628,15 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     ReportResult
     """
     from twoel.io import atomic_directory, atomic_write_text, dumps_json
-    from twoel.analysis.sweep import convergence_frame, series_frame, solve_many
-    from twoel.report import plots
 
     config = normalize_config(config)
     out = Path(out)
     if out.exists() and not overwrite:
         raise InputError(f"{str(out)!r} exists; refusing to overwrite it (use --overwrite)")
     sections = report_tasks(config)
-    flat = [(name, task) for name, tasks in sections.items() for task in tasks]
-    unique: dict[str, dict] = {}
-    for _name, task in flat:  # a solve asked for by two sections is done once
-        unique.setdefault(json.dumps(task, sort_keys=True), task)
-    solved = dict(zip(unique, solve_many(list(unique.values()), jobs=jobs, progress=progress,
-                                         description="report")))
-    results = [solved[json.dumps(task, sort_keys=True)] for _name, task in flat]
-    by_section: dict[str, list] = {}
-    for (name, _task), result in zip(flat, results):
-        by_section.setdefault(name, []).append(result)
+    results, by_section = _solve_sections(sections, jobs, progress)
 
-    frames, page, files, notes, hf_refs = {}, _Page(), [], [], []
+    page = _Page()
     page.heading(1, config["title"])
     if config["scenario"]:
         page.paragraph(config["scenario"])
@@ -453,100 +644,17 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     with atomic_directory(out, overwrite=overwrite) as folder:
         (folder / "tables").mkdir()
         (folder / "figures").mkdir()
-        if "series" in by_section:
-            s = config["series"]
-            frame = series_frame(s["Z"], {}, results=by_section["series"])
-            frames["series"] = frame
-            page.heading(2, "Isoelectronic sequence")
-            files += _write_table(folder, "series", frame, SERIES_COLUMNS,
-                                  f"{frame['state'].iloc[0]} energies along the sequence, family "
-                                  f"{frame['family'].iloc[0]}, size {frame['size'].iloc[0]}", page)
-            with_ref = frame.dropna(subset=["reference_hartree"])
-            if len(with_ref):
-                fig = plots.residual_figure(with_ref["Z"], with_ref["difference_hartree"])
-                files += _write_figure(folder, "residuals", fig,
-                                       "Distance of the variational energies from the published values", page)
-            hf = _hartree_fock_limits(list(frame["Z"]))
-            if len(hf) >= 2:
-                rows = frame[frame["Z"].isin(list(hf))]
-                refs = rows["reference_hartree"]
-                hf_refs.extend(hf[z] for z in rows["Z"])
-                fig = plots.correlation_figure(rows["Z"], rows["energy_hartree"], [hf[z].value for z in rows["Z"]],
-                                               reference_hartree=None if refs.isna().any() else refs)
-                files += _write_figure(folder, "correlation", fig,
-                                       "Correlation energy: computed and published energies minus the "
-                                       "Hartree-Fock limits of data/hartree_fock_limits.csv", page)
-        if "convergence" in by_section:
-            frame = convergence_frame(config["convergence"]["Z"], config["convergence"]["sizes"], {},
-                                      results=by_section["convergence"])
-            frames["convergence"] = frame
-            page.heading(2, "Convergence with the basis")
-            files += _write_table(folder, "convergence", frame, CONVERGENCE_COLUMNS,
-                                  f"{frame['ion'].iloc[0]} {frame['state'].iloc[0]}: energy against "
-                                  f"the size parameter of family {frame['family'].iloc[0]}", page)
-            extrapolated = frame["extrapolated_hartree"].dropna()
-            ref = frame["reference_hartree"].iloc[0]
-            fig = plots.convergence_figure(frame["n_terms"], frame["energy_hartree"],
-                                           reference_hartree=None if ref is None or math.isnan(ref) else ref,
-                                           extrapolated_hartree=extrapolated.iloc[-1] if len(extrapolated) else None)
-            files += _write_figure(folder, "convergence", fig,
-                                   "Increments, error against the reference and distance to the "
-                                   "geometric (Aitken) limit estimate, against the number of terms", page)
-            notes.append("The extrapolated values are Aitken estimates from three successive sizes; "
-                         "they are a guide, not an error bar.")
-        if "levels" in by_section:
-            frame = _level_frame(by_section["levels"])
-            frames["levels"] = frame
-            page.heading(2, "Computed levels")
-            files += _write_table(folder, "levels", frame, LEVEL_COLUMNS,
-                                  f"Computed levels of {frame['ion'].iloc[0]}", page)
-            first = by_section["levels"][0]
-            thresholds = {f"one-electron threshold -Z²/2 = {first.threshold_hartree:g} Eh": first.threshold_hartree}
-            fig = plots.level_diagram_figure(frame["state"], frame["energy_hartree"], thresholds)
-            files += _write_figure(folder, "levels", fig, "Computed levels (Eh)", page)
-        checked = by_section.get("series", []) + by_section.get("levels", [])
-        for result in {id(r): r for r in checked}.values():
-            if result.difference_hartree is not None and abs(result.difference_hartree) > 1e-3:
-                notes.append(f"{result.ion} {result.state} (size {result.size}) is {result.difference_hartree:.1e} Eh "
-                             "above the published value: this basis is far from converged for it.")
-        for result in {id(r): r for r in results}.values():
-            for text in result.warnings:
-                notes.append(f"{result.ion} {result.state} (size {result.size}): {text}")
-        cited = [r.reference for r in results if r.reference is not None] + hf_refs
-        keys = sorted({ref.key for ref in cited})
-        if keys:
-            atomic_write_text(folder / "references.bib", _bib_entries(keys))
-            files.append("references.bib")
-            sources = {}
-            for ref in cited:
-                entry = sources.setdefault(ref.key, [ref.source, False])
-                entry[1] |= "from memory" in ref.note.lower()
-            page.heading(2, "References")
-            page.items(f"[{key}] {src}" + (" (some values quoted from memory; see the note "
-                                           "column of the tables in data/)" if memory else "")
-                       for key, (src, memory) in sorted(sources.items()))
-            page.paragraph("BibTeX entries for these keys (cited by the .tex tables): references.bib.")
+        frames, files, notes, hf_refs = _write_sections(folder, config, by_section, page)
+        notes += _result_notes(by_section, results)
+        files += _references_section(folder, [r.reference for r in results if r.reference is not None]
+                                     + hf_refs, page)
         if notes:
             page.heading(2, "Notes")
             page.items(dict.fromkeys(notes))
-        page.heading(2, "Reproduce")
-        page.paragraph("provenance.json holds the package versions, the CODATA constants, this "
-                       "report's configuration, every parameter and basis definition, and every "
-                       "number above. Re-run it and compare every number bit for bit with:")
-        page.code(f"twoel report --from-provenance {out.as_posix()}/provenance.json --out {out.name}-rerun")
+        _reproduce_section(page, out)
         numbers = _numbers(frames)
-        provenance = {
-            "format": PROVENANCE_FORMAT, "format_version": PROVENANCE_VERSION,
-            "generator": f"twoel {__version__} (twoel report)",
-            "packages": package_versions(), "platform": platform.platform(),
-            "python_implementation": sys.implementation.name,
-            "constants": constants.provenance(),
-            "config": config,
-            "computations": {name: [_result_record(t, r) for t, r in zip(sections[name], by_section[name])]
-                             for name in sections},
-            "numbers": numbers,
-        }
-        atomic_write_text(folder / "provenance.json", dumps_json(provenance) + "\n")
+        atomic_write_text(folder / "provenance.json",
+                          dumps_json(_provenance(config, sections, by_section, numbers)) + "\n")
         files.append("provenance.json")
         atomic_write_text(folder / "index.md", page.markdown())
         files.append("index.md")

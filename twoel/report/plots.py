@@ -50,6 +50,21 @@ def _arrays(*pairs):
     return out
 
 
+def _optional(name: str, values):
+    """``values`` as a one-dimensional float array, or ``None`` when not given."""
+    return None if values is None else _arrays((name, values))[0]
+
+
+def _finish(ax, xlabel: str, ylabel: str, title: str, legend: bool = True, grid_axis: str = "both"):
+    """Label both axes, draw a light grid, add the legend (when asked) and the title."""
+    ax.set_xlabel(xlabel)
+    ax.set_ylabel(ylabel)
+    ax.grid(True, axis=grid_axis, alpha=0.3)
+    if legend:
+        ax.legend(fontsize="small")
+    ax.set_title(title)
+
+
 def _log_abs(values):
     v = np.abs(np.asarray(values, dtype=float))
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -83,14 +98,11 @@ def convergence_figure(size, energy_hartree, reference_hartree: float | None = N
         ax.plot(n, _log_abs(e - reference_hartree), "s-", label=r"$|E - E_\mathrm{ref}|$")
     if extrapolated_hartree is not None and np.isfinite(extrapolated_hartree):
         ax.plot(n, _log_abs(e - extrapolated_hartree), "^--", label=r"$|E - E_\mathrm{extrap}|$")
-    if error_bar_hartree is not None:
-        (bar,) = _arrays(("error_bar_hartree", error_bar_hartree))
+    bar = _optional("error_bar_hartree", error_bar_hartree)
+    if bar is not None:
         ax.plot(n, _log_abs(bar), ":", color="grey", label="error bar")
-    ax.set_xlabel(size_label)
-    ax.set_ylabel(r"$\log_{10}$ |energy difference / $E_\mathrm{h}$|")
-    ax.grid(True, alpha=0.3)
-    ax.legend(fontsize="small")
-    ax.set_title(title or "Convergence with basis size")
+    _finish(ax, size_label, r"$\log_{10}$ |energy difference / $E_\mathrm{h}$|",
+            title or "Convergence with basis size")
     return fig
 
 
@@ -103,11 +115,8 @@ def residual_figure(Z, residual_hartree, label: str = r"$E - E_\mathrm{ref}$", t
     negative = r < 0
     if negative.any():
         ax.plot(z[negative], _log_abs(r[negative]), "rx", label="below reference (not an upper bound!)")
-    ax.set_xlabel("nuclear charge Z")
-    ax.set_ylabel(r"$\log_{10}$ |$E - E_\mathrm{ref}$| / $E_\mathrm{h}$")
-    ax.grid(True, alpha=0.3)
-    ax.legend(fontsize="small")
-    ax.set_title(title or "Residuals against published energies")
+    _finish(ax, "nuclear charge Z", r"$\log_{10}$ |$E - E_\mathrm{ref}$| / $E_\mathrm{h}$",
+            title or "Residuals against published energies")
     return fig
 
 
@@ -120,14 +129,11 @@ def correlation_figure(Z, energy_hartree, hartree_fock_hartree, reference_hartre
     fig = _figure()
     ax = fig.add_subplot()
     ax.plot(z, 1e3 * (e - hf), "o-", label=r"computed $E - E_\mathrm{HF}$")
-    if reference_hartree is not None:
-        (ref,) = _arrays(("reference_hartree", reference_hartree))
+    ref = _optional("reference_hartree", reference_hartree)
+    if ref is not None:
         ax.plot(z, 1e3 * (ref - hf), "s--", label=r"published $E_\mathrm{ref} - E_\mathrm{HF}$")
-        ax.legend(fontsize="small")
-    ax.set_xlabel("nuclear charge Z")
-    ax.set_ylabel(r"correlation energy $E - E_\mathrm{HF}$ / m$E_\mathrm{h}$")
-    ax.grid(True, alpha=0.3)
-    ax.set_title(title or "Correlation energy along the sequence")
+    _finish(ax, "nuclear charge Z", r"correlation energy $E - E_\mathrm{HF}$ / m$E_\mathrm{h}$",
+            title or "Correlation energy along the sequence", legend=ref is not None)
     return fig
 
 
@@ -137,14 +143,11 @@ def radial_density_figure(r_bohr, density_per_bohr, hartree_fock_per_bohr=None, 
     fig = _figure()
     ax = fig.add_subplot()
     ax.plot(r, d, label="correlated")
-    if hartree_fock_per_bohr is not None:
-        (hf,) = _arrays(("hartree_fock_per_bohr", hartree_fock_per_bohr))
+    hf = _optional("hartree_fock_per_bohr", hartree_fock_per_bohr)
+    if hf is not None:
         ax.plot(r, hf, "--", label="Hartree-Fock")
-        ax.legend(fontsize="small")
-    ax.set_xlabel(r"$r$ / bohr")
-    ax.set_ylabel(r"$D(r) = 4\pi r^2 \rho(r)$ / bohr$^{-1}$")
-    ax.grid(True, alpha=0.3)
-    ax.set_title(title or "Radial electron density")
+    _finish(ax, r"$r$ / bohr", r"$D(r) = 4\pi r^2 \rho(r)$ / bohr$^{-1}$",
+            title or "Radial electron density", legend=hf is not None)
     return fig
 
 
@@ -155,8 +158,8 @@ def pair_distribution_figure(r12_bohr, pair_per_bohr, hartree_fock_per_bohr=None
     axes = fig.subplots(2 if hartree_fock_per_bohr is not None else 1, 1, sharex=True, squeeze=False)[:, 0]
     axes[0].plot(r, p, label="correlated")
     axes[0].set_ylabel(r"$P(r_{12})$ / bohr$^{-1}$")
-    if hartree_fock_per_bohr is not None:
-        (hf,) = _arrays(("hartree_fock_per_bohr", hartree_fock_per_bohr))
+    hf = _optional("hartree_fock_per_bohr", hartree_fock_per_bohr)
+    if hf is not None:
         axes[0].plot(r, hf, "--", label="Hartree-Fock")
         axes[0].legend(fontsize="small")
         axes[1].plot(r, p - hf)
@@ -195,10 +198,8 @@ def level_diagram_figure(labels, energy_hartree, thresholds_hartree=None, title:
                     ha="right", fontsize="x-small", color="grey")
     ax.set_xticks(range(len(labels)), [_term_label(x) for x in labels])
     ax.set_xlim(-0.6, len(labels) - 0.4)
-    ax.set_xlabel("state")
-    ax.set_ylabel(r"energy / $E_\mathrm{h}$")
-    ax.grid(True, axis="y", alpha=0.3)
-    ax.set_title(title or "Computed levels")
+    _finish(ax, "state", r"energy / $E_\mathrm{h}$", title or "Computed levels", legend=False,
+            grid_axis="y")
     return fig
 
 

@@ -54,6 +54,16 @@ SCIENTIFIC_COLUMNS = frozenset({
 STATE_COLUMNS = frozenset({"state"})
 CITATION_COLUMNS = frozenset({"reference_key", "key"})
 
+#: unit -> (plain-text form, LaTeX form), appended to a column label by :func:`_in_unit`
+_UNIT_TEXT = {"Eh": ("Eh", r"$E_\mathrm{h}$"), "eV": ("eV", "eV"), "cm-1": ("cm⁻¹", r"cm$^{-1}$")}
+
+
+def _in_unit(plain: str, latex: str, unit: str = "Eh") -> tuple[str, str]:
+    """The (plain-text, LaTeX) labels of a quantity with its unit in parentheses."""
+    plain_unit, latex_unit = _UNIT_TEXT[unit]
+    return (f"{plain} ({plain_unit})", f"{latex} ({latex_unit})")
+
+
 #: column name -> (plain-text label, LaTeX label)
 COLUMN_LABELS = {
     "Z": ("Z", r"$Z$"),
@@ -62,21 +72,21 @@ COLUMN_LABELS = {
     "family": ("family", "family"),
     "size": ("size", "size"),
     "n_terms": ("N", r"$N$"),
-    "energy_hartree": ("E (Eh)", r"$E$ ($E_\mathrm{h}$)"),
-    "error_bar_hartree": ("error bar (Eh)", r"$\sigma_E$ ($E_\mathrm{h}$)"),
-    "reference_hartree": ("E_ref (Eh)", r"$E_\mathrm{ref}$ ($E_\mathrm{h}$)"),
-    "reference_uncertainty_hartree": ("σ_ref (Eh)", r"$\sigma_\mathrm{ref}$ ($E_\mathrm{h}$)"),
+    "energy_hartree": _in_unit("E", r"$E$"),
+    "error_bar_hartree": _in_unit("error bar", r"$\sigma_E$"),
+    "reference_hartree": _in_unit("E_ref", r"$E_\mathrm{ref}$"),
+    "reference_uncertainty_hartree": _in_unit("σ_ref", r"$\sigma_\mathrm{ref}$"),
     "reference_key": ("ref.", "Ref."),
     "reference_source": ("source", "source"),
-    "difference_hartree": ("E − E_ref (Eh)", r"$E-E_\mathrm{ref}$ ($E_\mathrm{h}$)"),
+    "difference_hartree": _in_unit("E − E_ref", r"$E-E_\mathrm{ref}$"),
     "agreeing_digits": ("digits", "digits"),
-    "increment_hartree": ("ΔE (Eh)", r"$\Delta E$ ($E_\mathrm{h}$)"),
-    "extrapolated_hartree": ("E_extrap (Eh)", r"$E_\mathrm{extrap}$ ($E_\mathrm{h}$)"),
-    "extrapolation_error_hartree": ("E − E_extrap (Eh)", r"$E-E_\mathrm{extrap}$ ($E_\mathrm{h}$)"),
-    "ionization_energy_hartree": ("I (Eh)", r"$I$ ($E_\mathrm{h}$)"),
-    "ionization_energy_ev": ("I (eV)", r"$I$ (eV)"),
-    "ionization_energy_cm1": ("I (cm⁻¹)", r"$I$ (cm$^{-1}$)"),
-    "correlation_energy_hartree": ("E_corr (Eh)", r"$E_\mathrm{corr}$ ($E_\mathrm{h}$)"),
+    "increment_hartree": _in_unit("ΔE", r"$\Delta E$"),
+    "extrapolated_hartree": _in_unit("E_extrap", r"$E_\mathrm{extrap}$"),
+    "extrapolation_error_hartree": _in_unit("E − E_extrap", r"$E-E_\mathrm{extrap}$"),
+    "ionization_energy_hartree": _in_unit("I", r"$I$"),
+    "ionization_energy_ev": _in_unit("I", r"$I$", "eV"),
+    "ionization_energy_cm1": _in_unit("I", r"$I$", "cm-1"),
+    "correlation_energy_hartree": _in_unit("E_corr", r"$E_\mathrm{corr}$"),
     "virial_ratio": ("−V/T", r"$-\langle V\rangle/\langle T\rangle$"),
     "bound": ("bound", "bound"),
 }
