@@ -114,19 +114,28 @@ class MasterSeries:
             self.size = size
             self._partial.clear()
 
-    def partial(self, m: int):
-        """``Q_m[e, l1, n1] = Σ_{m1 <= m} F_A[e, l1, m1] F_B[e, m - m1, n1]`` (all ``l1, n1``)."""
-        if m not in self._partial:
-            size = self.size
+    def partial(self, m: int, l_extent: int | None = None, n_extent: int | None = None):
+        """``Q_m[e, l1, n1] = Σ_{m1 <= m} F_A[e, l1, m1] F_B[e, m - m1, n1]`` for
+        ``l1 < l_extent``, ``n1 < n_extent`` (default: the whole current size); cached per ``m``
+        and grown when a larger extent is asked for."""
+        size = self.size
+        l_extent = size if l_extent is None else l_extent
+        n_extent = size if n_extent is None else n_extent
+        cached = self._partial.get(m)
+        if cached is None or cached[0] < l_extent or cached[1] < n_extent:
+            if cached is not None:
+                l_extent, n_extent = max(l_extent, cached[0]), max(n_extent, cached[1])
             FA, FB = self.factor("A", size), self.factor("B", size)
-            self._partial[m] = self.number.einsum("eam,emn->ean", FA[:, :size, : m + 1], FB[:, m::-1, :size])
-        return self._partial[m]
+            value = self.number.einsum("eam,emn->ean", FA[:, :l_extent, : m + 1], FB[:, m::-1, :n_extent])
+            cached = self._partial[m] = (l_extent, n_extent, value)
+        return cached[2]
 
     def coefficient(self, l: int, m: int, n: int):
         """``c[e, l, m, n]`` of the module docstring (the integral divided by ``16π² l! m! n!``)."""
         self._grow(max(l, m, n) + 1)
         FC = self.factor("C", self.size)
-        return self.number.einsum("eab,eba->e", self.partial(m)[:, : l + 1, : n + 1], FC[:, n::-1, l::-1])
+        Q = self.partial(m, l + 1, n + 1)
+        return self.number.einsum("eab,eba->e", Q[:, : l + 1, : n + 1], FC[:, n::-1, l::-1])
 
     def coefficient_table(self, size: int):
         """``c[e, l, m, n]`` for all ``l, m, n < size``, shape ``(E, size, size, size)``."""
