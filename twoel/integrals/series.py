@@ -103,9 +103,23 @@ class MasterSeries:
         if cached is not None and cached[0] >= size:
             return cached[1]
         number = self.number
-        powers = number.stack(self._inverse_powers(name, 2 * size - 1), axis=-1)
-        index = np.add.outer(np.arange(size), np.arange(size))
-        table = powers[:, index] * number.integers(_binomials(size))[None]
+        inverse = self._inverse_powers(name, 2 * size - 1)
+        if number is FLOAT64:
+            powers = np.stack(inverse, axis=-1)
+            index = np.add.outer(np.arange(size), np.arange(size))
+            table = powers[:, index] * number.integers(_binomials(size))[None]
+        else:  # one multiplication per distinct binomial weight (they repeat, and 1 is free)
+            weighted: dict = {}
+            entries = []
+            for p in range(size):
+                for q in range(size):
+                    weight = comb(p + q, p)
+                    key = (p + q, weight)
+                    if key not in weighted:
+                        power = inverse[p + q]
+                        weighted[key] = power if weight == 1 else power * number.integers(np.array(weight, dtype=object))
+                    entries.append(weighted[key])
+            table = number.stack(entries, axis=-1).reshape((-1, size, size))
         self._factors[name] = (size, table)
         return table
 
@@ -129,6 +143,20 @@ class MasterSeries:
             value = self.number.einsum("eam,emn->ean", FA[:, :l_extent, : m + 1], FB[:, m::-1, :n_extent])
             cached = self._partial[m] = (l_extent, n_extent, value)
         return cached[2]
+
+    def prepare(self, powers) -> None:
+        """Size the caches for all the ``(a, b, c)`` (each ``>= -1``) that will be asked for, so
+        that each partial convolution is computed once, as wide as its widest target."""
+        powers = [tuple(int(x) + 1 for x in abc) for abc in powers]
+        if not powers:
+            return
+        self._grow(max(max(t) for t in powers) + 1)
+        extents: dict = {}
+        for l, m, n in powers:
+            lo, no = extents.get(m, (0, 0))
+            extents[m] = (max(lo, l + 1), max(no, n + 1))
+        for m, (l_extent, n_extent) in extents.items():
+            self.partial(m, l_extent, n_extent)
 
     def coefficient(self, l: int, m: int, n: int):
         """``c[e, l, m, n]`` of the module docstring (the integral divided by ``16π² l! m! n!``)."""
