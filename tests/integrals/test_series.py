@@ -94,8 +94,8 @@ def test_double_double_einsum_matches_float_einsum_on_exact_inputs():
     rng = np.random.default_rng(3)
     x = rng.integers(-50, 50, (4, 3, 5)).astype(float)
     y = rng.integers(-50, 50, (4, 5, 2)).astype(float)
-    from twoel.integrals.doubledouble import dd_einsum
-
-    out = dd_einsum("eam,emn->ean", DD(x), DD(y))
+    out = DOUBLE_DOUBLE.einsum("eam,emn->ean", DD(x), DD(y))
     np.testing.assert_array_equal(out.hi, np.einsum("eam,emn->ean", x, y))  # small integers: exact
     np.testing.assert_array_equal(out.lo, 0.0)
+    np.testing.assert_array_equal(FLOAT64.einsum("eab,eba->e", x[:, :2, :2], y[:, :2, :2]),
+                                  np.einsum("eab,eba->e", x[:, :2, :2], y[:, :2, :2]))

@@ -58,6 +58,22 @@ def _binomials(size: int) -> np.ndarray:
     return np.array([[comb(p + q, p) for q in range(size)] for p in range(size)], dtype=object)
 
 
+@lru_cache(maxsize=None)
+def _float_binomials(size: int) -> np.ndarray:
+    return _binomials(size).astype(float)
+
+
+def _table_weight(size: int, number: NumberType):
+    """``16π² l! m! n!`` for ``l, m, n < size`` in the number type."""
+    f = np.array([factorial(k) for k in range(size)], dtype=object)
+    return number.factorial_weight(f[:, None, None], f[None, :, None], f[None, None, :])
+
+
+@lru_cache(maxsize=None)
+def _float_table_weight(size: int) -> np.ndarray:
+    return _table_weight(size, FLOAT64)
+
+
 def check_exponents(A, B, C) -> None:
     """Raise :class:`InputError` unless the exponent sums are positive (the integral converges)."""
     if np.any(np.asarray(A) <= 0) or np.any(np.asarray(B) <= 0) or np.any(np.asarray(C) <= 0):
@@ -74,109 +90,94 @@ class MasterSeries:
     number : NumberType
         The arithmetic (:data:`twoel.integrals.numbers.FLOAT64` by default).
 
-    The factor tensors ``F_X`` and the partial convolutions ``Q_m`` are cached and grown on
-    demand, so many targets of one set of pairs share their work.
+    The two convolutions of the module docstring are evaluated in one of two ways, chosen by
+    what is asked for:
+
+    * :meth:`table` (all targets, few entries: Hylleraas bases) contracts whole factor
+      tensors ``F_X[e, p, q]`` with the number type's ``einsum``;
+    * :meth:`integral` (one target at a time, many entries: pair series) works on rows: each
+      factor ``F_X[p, q]``, each partial sum ``Q_m[l1, n1]`` and each coefficient is one
+      contiguous array over the entries, computed when first needed and cached, so targets
+      share their work and no unused term is formed.
     """
 
     def __init__(self, A, B, C, number: NumberType = FLOAT64):
         self.number = number
         self._sums = {"A": A, "B": B, "C": C}
-        self._inverse = {}
-        self._factors: dict = {}
-        self._partial: dict = {}
-        self.size = 0
+        self._inverse: dict = {}
+        self._rows: dict = {}
+        self._partial_rows: dict = {}
+        self._tensors: dict = {}
 
-    def _inverse_powers(self, name: str, count: int):
-        """``X^{-1}, …, X^{-count}`` stacked on the last axis."""
-        cached = self._inverse.get(name)
-        if cached is None or len(cached) < count:
-            number = self.number
-            powers = list(cached or [number.reciprocal(self._sums[name])])
-            while len(powers) < count:
-                powers.append(powers[-1] * powers[0])
-            self._inverse[name] = powers
-        return self._inverse[name][:count]
+    # -- the factors -------------------------------------------------------------------------
+
+    def _inverse_power(self, name: str, k: int):
+        """``X^{-k}`` (``k >= 1``), by repeated multiplication, cached."""
+        powers = self._inverse.setdefault(name, [self.number.reciprocal(self._sums[name])])
+        while len(powers) < k:
+            powers.append(powers[-1] * powers[0])
+        return powers[k - 1]
+
+    def factor_row(self, name: str, p: int, q: int):
+        """``F_X[p, q] = binom(p+q, p) X^{-(p+q+1)}`` over the entries (one multiplication per
+        distinct weight; a weight of 1 is free)."""
+        weight = comb(p + q, p)
+        key = (name, p + q, weight)
+        if key not in self._rows:
+            power = self._inverse_power(name, p + q + 1)
+            self._rows[key] = power if weight == 1 else power * self.number.integers(np.array(weight, dtype=object))
+        return self._rows[key]
 
     def factor(self, name: str, size: int):
-        """``F_X[e, p, q] = binom(p+q, p) X_e^{-(p+q+1)}`` for ``p, q < size``."""
-        cached = self._factors.get(name)
-        if cached is not None and cached[0] >= size:
-            return cached[1]
-        number = self.number
-        inverse = self._inverse_powers(name, 2 * size - 1)
-        if number is FLOAT64:
-            powers = np.stack(inverse, axis=-1)
-            index = np.add.outer(np.arange(size), np.arange(size))
-            table = powers[:, index] * number.integers(_binomials(size))[None]
-        else:  # one multiplication per distinct binomial weight (they repeat, and 1 is free)
-            weighted: dict = {}
-            entries = []
-            for p in range(size):
-                for q in range(size):
-                    weight = comb(p + q, p)
-                    key = (p + q, weight)
-                    if key not in weighted:
-                        power = inverse[p + q]
-                        weighted[key] = power if weight == 1 else power * number.integers(np.array(weight, dtype=object))
-                    entries.append(weighted[key])
-            table = number.stack(entries, axis=-1).reshape((-1, size, size))
-        self._factors[name] = (size, table)
-        return table
+        """The tensor ``F_X[e, p, q]`` for ``p, q < size`` (shape ``(E, size, size)``)."""
+        cached = self._tensors.get(name)
+        if cached is None or cached[0] < size:
+            number = self.number
+            if number is FLOAT64:  # vectorized: gather the powers, times the binomial table
+                powers = np.stack([self._inverse_power(name, k) for k in range(1, 2 * size)], axis=-1)
+                index = np.add.outer(np.arange(size), np.arange(size))
+                tensor = powers[:, index] * _float_binomials(size)[None]
+            else:
+                rows = [self.factor_row(name, p, q) for p in range(size) for q in range(size)]
+                tensor = number.stack(rows, axis=-1).reshape((-1, size, size))
+            cached = self._tensors[name] = (size, tensor)
+        return cached[1]
 
-    def _grow(self, size: int) -> None:
-        if size > self.size:
-            self.size = size
-            self._partial.clear()
+    # -- one target: rows ----------------------------------------------------------------------
 
-    def partial(self, m: int, l_extent: int | None = None, n_extent: int | None = None):
-        """``Q_m[e, l1, n1] = Σ_{m1 <= m} F_A[e, l1, m1] F_B[e, m - m1, n1]`` for
-        ``l1 < l_extent``, ``n1 < n_extent`` (default: the whole current size); cached per ``m``
-        and grown when a larger extent is asked for."""
-        size = self.size
-        l_extent = size if l_extent is None else l_extent
-        n_extent = size if n_extent is None else n_extent
-        cached = self._partial.get(m)
-        if cached is None or cached[0] < l_extent or cached[1] < n_extent:
-            if cached is not None:
-                l_extent, n_extent = max(l_extent, cached[0]), max(n_extent, cached[1])
-            FA, FB = self.factor("A", size), self.factor("B", size)
-            value = self.number.einsum("eam,emn->ean", FA[:, :l_extent, : m + 1], FB[:, m::-1, :n_extent])
-            cached = self._partial[m] = (l_extent, n_extent, value)
-        return cached[2]
-
-    def prepare(self, powers) -> None:
-        """Size the caches for all the ``(a, b, c)`` (each ``>= -1``) that will be asked for, so
-        that each partial convolution is computed once, as wide as its widest target."""
-        powers = [tuple(int(x) + 1 for x in abc) for abc in powers]
-        if not powers:
-            return
-        self._grow(max(max(t) for t in powers) + 1)
-        extents: dict = {}
-        for l, m, n in powers:
-            lo, no = extents.get(m, (0, 0))
-            extents[m] = (max(lo, l + 1), max(no, n + 1))
-        for m, (l_extent, n_extent) in extents.items():
-            self.partial(m, l_extent, n_extent)
+    def partial_row(self, m: int, l1: int, n1: int):
+        """``Q_m[l1, n1] = Σ_{m1 <= m} F_A[l1, m1] F_B[m - m1, n1]`` over the entries."""
+        key = (m, l1, n1)
+        if key not in self._partial_rows:
+            total = None
+            for m1 in range(m + 1):
+                term = self.factor_row("A", l1, m1) * self.factor_row("B", m - m1, n1)
+                total = term if total is None else total + term
+            self._partial_rows[key] = total
+        return self._partial_rows[key]
 
     def coefficient(self, l: int, m: int, n: int):
-        """``c[e, l, m, n]`` of the module docstring (the integral divided by ``16π² l! m! n!``)."""
-        self._grow(max(l, m, n) + 1)
-        FC = self.factor("C", self.size)
-        Q = self.partial(m, l + 1, n + 1)
-        return self.number.einsum("eab,eba->e", Q[:, : l + 1, : n + 1], FC[:, n::-1, l::-1])
+        """``c[l, m, n] = Σ_{l1 <= l, n1 <= n} Q_m[l1, n1] F_C[n - n1, l - l1]`` over the entries
+        (the integral divided by ``16π² l! m! n!``)."""
+        total = None
+        for l1 in range(l + 1):
+            for n1 in range(n + 1):
+                term = self.partial_row(m, l1, n1) * self.factor_row("C", n - n1, l - l1)
+                total = term if total is None else total + term
+        return total
+
+    # -- all targets: tensors ------------------------------------------------------------------
 
     def coefficient_table(self, size: int):
         """``c[e, l, m, n]`` for all ``l, m, n < size``, shape ``(E, size, size, size)``."""
-        self._grow(size)
-        size = self.size
-        FC = self.factor("C", size)
         number = self.number
-        Q = number.stack([self.partial(m) for m in range(size)], axis=2)  # (E, l1, m, n1)
+        FA, FB, FC = (self.factor(name, size) for name in "ABC")
+        partial = [number.einsum("eam,emn->ean", FA[:, :, : m + 1], FB[:, m::-1, :]) for m in range(size)]
+        Q = number.stack(partial, axis=2)  # (E, l1, m, n1)
         planes = []
         for l in range(size):
-            rows = []
-            for n in range(size):
-                rows.append(number.einsum("eamb,eba->em", Q[:, : l + 1, :, : n + 1], FC[:, n::-1, l::-1]))
+            rows = [number.einsum("eamb,eba->em", Q[:, : l + 1, :, : n + 1], FC[:, n::-1, l::-1])
+                    for n in range(size)]
             planes.append(number.stack(rows, axis=-1))
         return number.stack(planes, axis=1)
 
@@ -188,8 +189,7 @@ class MasterSeries:
     def table(self, max_power: int):
         """All ``I(a, b, c)``, ``-1 <= a, b, c <= max_power``: ``table[e, a+1, b+1, c+1]``."""
         size = max_power + 2
-        f = np.array([factorial(k) for k in range(size)], dtype=object)
-        weight = self.number.factorial_weight(f[:, None, None], f[None, :, None], f[None, None, :])
+        weight = _float_table_weight(size) if self.number is FLOAT64 else _table_weight(size, self.number)
         return self.coefficient_table(size) * weight[None]
 
 

@@ -39,7 +39,6 @@ def _block(bra, ket):
     sums = exponent_sums(*columns(bra, ket, DD))
     A, B, C = (DD(np.broadcast_to(x.hi, shape).reshape(-1), np.broadcast_to(x.lo, shape).reshape(-1)) for x in sums)
     series = MasterSeries(A, B, C, DOUBLE_DOUBLE)
-    series.prepare({abc for terms in MOMENTS.values() for _c, abc in terms})
     integrals: dict = {}
     out = {}
     for name, terms in MOMENTS.items():
