@@ -26,7 +26,8 @@ import math
 from dataclasses import asdict, dataclass
 
 from twoel import constants
-from twoel.corrections.qed import bethe_log_hydrogenic_1s, alpha4_radiative_coefficient
+from twoel.corrections.qed import alpha4_radiative_factor, bethe_log_hydrogenic_1s, one_electron_qed_factor
+from twoel.properties.operators import hydrogenic_delta_1s
 
 
 @dataclass(frozen=True)
@@ -66,21 +67,17 @@ def dirac_1s(Z: float, reduced_mass: float = 1.0) -> float:
 
 def lamb_shift_1s(Z: float, reduced_mass: float = 1.0) -> float:
     """Leading α(Zα)⁴ Lamb shift of the 1s level (Eh), incl. vacuum polarization."""
-    alpha = constants.FINE_STRUCTURE.value
-    delta = Z**3 / math.pi * reduced_mass**3  # ⟨δ³(r)⟩ of 1s in reduced units
-    bethe = bethe_log_hydrogenic_1s(Z)
-    return (4 * Z * alpha**3 / 3) * (math.log(1 / alpha**2) - bethe + 19 / 30) * delta
+    # ⟨δ³(r)⟩ of 1s in reduced units, the same operator as the atom's
+    return one_electron_qed_factor(Z, bethe_log_hydrogenic_1s(Z)) * hydrogenic_delta_1s(Z, reduced_mass)
 
 
 def one_electron_ion(Z: float, reduced_mass: float = 1.0) -> OneElectronIon:
     """All energy pieces of the hydrogen-like 1s ion (Eh)."""
-    alpha = constants.FINE_STRUCTURE.value
     nonrel = -0.5 * Z * Z
-    delta = Z**3 / math.pi * reduced_mass**3
     return OneElectronIon(
         Z=float(Z), reduced_mass=reduced_mass, nonrelativistic_infinite_mass=nonrel,
         finite_mass=nonrel * (reduced_mass - 1.0),
         relativistic=dirac_1s(Z, reduced_mass) - nonrel * reduced_mass,
         qed_alpha3=lamb_shift_1s(Z, reduced_mass),
-        qed_alpha4=alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient() * delta,
+        qed_alpha4=alpha4_radiative_factor(Z) * hydrogenic_delta_1s(Z, reduced_mass),
         bethe_log=bethe_log_hydrogenic_1s(Z))

@@ -45,6 +45,20 @@ def alpha4_radiative_coefficient() -> float:
     return 427.0 / 96.0 - 2.0 * math.log(2.0)
 
 
+def one_electron_qed_factor(Z: float, bethe_log: float) -> float:
+    """``(4Zα³/3)[19/30 + ln(1/α²) - ln(k0/R∞)]`` (Eh·bohr³): the α³ one-electron energy per unit
+    ``⟨Σ_i δ³(r_i)⟩`` (atom and 1s ion alike)."""
+    alpha = constants.FINE_STRUCTURE.value
+    return (4 * Z * alpha**3 / 3) * (19 / 30 + math.log(1 / alpha**2) - bethe_log)
+
+
+def alpha4_radiative_factor(Z: float) -> float:
+    """``π Z² α⁴ (427/96 - 2 ln 2)`` (Eh·bohr³): the one-loop α(Zα)⁵ energy per unit
+    ``⟨Σ_i δ³(r_i)⟩`` (atom and 1s ion alike)."""
+    alpha = constants.FINE_STRUCTURE.value
+    return alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient()
+
+
 def _rows():
     return all_references(BETHE_TABLE)
 
@@ -107,9 +121,10 @@ def qed_correction(Z: float, state, delta_r1: float, delta_r12: float, araki_suc
     alpha = constants.FINE_STRUCTURE.value
     bl = bethe_logarithm(Z, state)
     scale = reduced_mass**3
-    one = (4 * Z * alpha**3 / 3) * (19 / 30 + math.log(1 / alpha**2) - bl.value) * 2 * delta_r1 * scale
+    # ⟨δ³(r1) + δ³(r2)⟩ = 2⟨δ³(r1)⟩ (per-electron convention of twoel.properties.operators)
+    one = one_electron_qed_factor(Z, bl.value) * 2 * delta_r1 * scale
     two = alpha**3 * (164 / 15 + 14 / 3 * math.log(alpha)) * delta_r12 * scale
     # P(1/r³) scales as μ³ (1 + 3 ln μ term from the log); the log part is below 1e-4 relative
     arak = -alpha**3 * 7 / (6 * math.pi) * araki_sucher * scale
-    a4 = alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient() * 2 * delta_r1 * scale
+    a4 = alpha4_radiative_factor(Z) * 2 * delta_r1 * scale
     return QEDCorrection(one, two, arak, a4, bl)

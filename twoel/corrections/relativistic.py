@@ -106,7 +106,7 @@ def breit_pauli_s(Z: float, state, values, orbit_orbit: float, reduced_mass: flo
     d12 = values.delta_r12_regularized if state.is_singlet else 0.0
     d12_direct = values.delta_r12_direct if state.is_singlet else 0.0
     return BreitPauli(
-        mass_velocity=-a2 * values.p4_sum / 8,
+        mass_velocity=-a2 * values.p1_fourth / 4,  # -⅛⟨p1⁴ + p2⁴⟩ = -¼⟨p1⁴⟩ per electron
         darwin_one_electron=a2 * Z * pi * values.delta_r1_regularized,
         darwin_two_electron=-a2 * pi * d12,
         spin_spin_contact=-a2 * 8 * pi / 3 * ss * d12,
