@@ -31,9 +31,11 @@ dominates; for He 1¹S it is off by 3e-4, for 2³S by 6e-3).
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass
+from dataclasses import dataclass
+from typing import ClassVar
 
 from twoel import constants
+from twoel.properties.operators import AliasedResult
 from twoel.reference import all_references
 from twoel.system import State
 
@@ -69,14 +71,16 @@ def bethe_log_hydrogenic_1s(Z: float) -> float:
     return row.value + 2.0 * math.log(Z)
 
 
-@dataclass(frozen=True)
-class BetheLog:
+@dataclass(frozen=True, repr=False)
+class BetheLog(AliasedResult):
+    """A Bethe logarithm ``ln(k0/R∞)`` (dimensionless) with its source.
+
+    ``approximate`` is true for the hydrogenic-scaling approximation (no published value).
+    """
+
     value: float
     source: str
     approximate: bool
-
-    def to_dict(self) -> dict:
-        return asdict(self)
 
 
 def bethe_logarithm(Z: float, state: str | State) -> BetheLog:
@@ -95,24 +99,43 @@ def bethe_logarithm(Z: float, state: str | State) -> BetheLog:
                     True)
 
 
-@dataclass(frozen=True)
-class QEDCorrection:
-    """α³ QED pieces of a two-electron state (Eh, finite-mass scaled)."""
+@dataclass(frozen=True, repr=False)
+class QEDCorrection(AliasedResult):
+    """α³ QED pieces of a two-electron state (Eh, finite-mass scaled).
 
-    one_electron: float
-    two_electron: float
-    araki_sucher: float
-    alpha4_radiative: float
+    Attributes
+    ----------
+    one_electron_hartree, two_electron_hartree, araki_sucher_hartree : float
+        The three α³ terms of the module formula (Eh).
+    alpha4_radiative_hartree : float
+        The partial one-loop α⁴ term (Eh).
+    bethe_log : BetheLog
+        The Bethe logarithm used.
+    alpha3_hartree : float
+        Sum of the α³ terms (property).
+
+    The names without ``_hartree`` are the older ones (aliases, in ``to_dict()`` too).
+    """
+
+    ALIASES: ClassVar[dict] = {"one_electron": "one_electron_hartree", "two_electron": "two_electron_hartree",
+                               "araki_sucher": "araki_sucher_hartree",
+                               "alpha4_radiative": "alpha4_radiative_hartree", "alpha3": "alpha3_hartree"}
+    SUMMARY: ClassVar[tuple] = ("alpha3_hartree", "alpha4_radiative_hartree")
+
+    one_electron_hartree: float
+    two_electron_hartree: float
+    araki_sucher_hartree: float
+    alpha4_radiative_hartree: float
     bethe_log: BetheLog
 
     @property
-    def alpha3(self) -> float:
-        return self.one_electron + self.two_electron + self.araki_sucher
+    def alpha3_hartree(self) -> float:
+        return self.one_electron_hartree + self.two_electron_hartree + self.araki_sucher_hartree
 
     def to_dict(self) -> dict:
-        d = asdict(self)
-        d["alpha3"] = self.alpha3
-        return d
+        out = super().to_dict()
+        out["alpha3_hartree"] = self.alpha3_hartree
+        return self._with_aliases(out)
 
 
 def qed_correction(Z: float, state, delta_r1: float, delta_r12: float, araki_sucher: float,

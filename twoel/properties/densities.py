@@ -20,6 +20,7 @@ quadrature, split at the kink ``r2 = r``.  The normalization uses the analytic o
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import ClassVar
 
 import numpy as np
 
@@ -27,16 +28,21 @@ from twoel.errors import InputError
 from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.integrals.pairs import basis_kind, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
-from twoel.results import EnergyResult, Wavefunction
+from twoel.results import EnergyResult, Result, Wavefunction
 
 #: angular factor left after the Euler angles (half the 16π² of the master integral; the other
 #: factor 2 is the exchange term counted in the normalization)
 EIGHT_PI_SQUARED = SIXTEEN_PI_SQUARED / 2
 
 
-@dataclass(frozen=True)
-class Distribution:
-    """A distribution on a grid: ``values[i]`` at ``grid[i]`` (bohr, bohr⁻¹)."""
+@dataclass(frozen=True, repr=False)
+class Distribution(Result):
+    """A distribution on a grid: ``values[i]`` (bohr⁻¹) at ``grid[i]`` (bohr).
+
+    ``to_dict()`` names them with their units: ``grid_bohr``, ``values_per_bohr``.
+    """
+
+    SUMMARY: ClassVar[tuple] = ("kind",)
 
     kind: str
     grid: np.ndarray

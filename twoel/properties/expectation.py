@@ -30,7 +30,8 @@ Cusp ratios (Kato, Commun. Pure Appl. Math. 10, 151 (1957))
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass, field
+from dataclasses import dataclass, field
+from typing import ClassVar
 
 import numpy as np
 
@@ -43,8 +44,8 @@ from twoel.results import EnergyResult, Result, Wavefunction
 
 
 
-@dataclass(frozen=True)
-class ExpectationValues:
+@dataclass(frozen=True, repr=False)
+class ExpectationValues(Result):
     """Expectation values of one normalized state, per electron, atomic units.
 
     Attributes
@@ -96,9 +97,11 @@ class ExpectationValues:
     normalization: float
     notes: tuple = field(default=())
 
+    SUMMARY: ClassVar[tuple] = ("energy_hartree", "delta_r1_regularized", "delta_r12_regularized")
+
     def to_dict(self) -> dict:
-        out = asdict(self)
-        out["notes"] = list(self.notes)
+        """All fields (values in atomic units, see ``units``) and ``units``."""
+        out = super().to_dict()
         out["units"] = dict(UNITS)
         return out
 

@@ -42,7 +42,7 @@ The values these formulas need are the expectation values of :data:`MULTIPLICATI
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 from math import pi
 from typing import ClassVar
 
@@ -110,7 +110,16 @@ def hydrogenic_delta_1s(Z: float, reduced_mass: float = 1.0) -> float:
 _POINTS = {"r1": (0, (1, 2)), "r2": (1, (0, 2)), "r12": (2, (0, 1))}
 
 
-def coalescence_matrices(basis) -> dict[str, np.ndarray]:
+def _radial(n: np.ndarray, lam: np.ndarray) -> np.ndarray:
+    """:func:`radial_integral` of integer powers ``n``, one call per distinct power."""
+    out = np.empty(lam.shape)
+    for k in np.unique(n):
+        where = n == k
+        out[where] = radial_integral(int(k), lam[where])
+    return out
+
+
+def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
     """Primitive matrices of the direct δ and of the cusp numerators, S or P basis.
 
     Returns ``"delta_r1"`` (``½(δ³(r1) + δ³(r2))``), ``"delta_r12"``, ``"cusp_r1"``
@@ -118,12 +127,13 @@ def coalescence_matrices(basis) -> dict[str, np.ndarray]:
     ``⟨χ_p|O|(1 ± P12)χ_q⟩`` of shape (P, P) (the derivative acts on the ket and is spherically
     averaged; for P kets the derivative of the ``z`` factor averages to zero at the point).
     At ``r_i = 0`` the remaining integral is one radial closed form in the other two
-    coordinates, which coincide there.
+    coordinates, which coincide there.  ``cusps=False`` leaves out the cusp numerators.
     """
     kind = basis_kind(basis)
     P, E = basis.powers, basis.exponents
     n_p = P.shape[0]
-    out = {name: np.zeros((n_p, n_p)) for name in ("delta_r1", "delta_r12", "cusp_r1", "cusp_r12")}
+    names = ("delta_r1", "delta_r12") + (("cusp_r1", "cusp_r12") if cusps else ())
+    out = {name: np.zeros((n_p, n_p)) for name in names}
     bp, be = P[:, None, :], E[:, None, :]
     for exchanged, weight in ((False, 1.0), (True, float(basis.sign))):
         kp, ke = (P[:, [1, 0, 2]], E[:, [1, 0, 2]]) if exchanged else (P, E)
@@ -143,20 +153,33 @@ def coalescence_matrices(basis) -> dict[str, np.ndarray]:
             lam = te[..., rest[0]] + te[..., rest[1]]
             mask = tp[..., index] == 0
             vals = np.zeros((n_p, n_p))
-            vals[mask] = angular * radial_integral(n[mask], lam[mask])
+            vals[mask] = angular * _radial(n[mask], lam[mask])
             out[f"delta_{target}"] += share * weight * vals
+            if not cusps:
+                continue
             ket_i = np.broadcast_to(kp[None, :, index], mask.shape)
             slope = np.where(ket_i == 0, -np.broadcast_to(ke[None, :, index], mask.shape),
                              np.where(ket_i == 1, 1.0, 0.0))
             ok = (np.broadcast_to(bp[..., index], mask.shape) == 0) & (ket_i <= 1)
             vals = np.zeros((n_p, n_p))
-            vals[ok] = slope[ok] * (angular * radial_integral(n[ok], lam[ok]))
+            vals[ok] = slope[ok] * (angular * _radial(n[ok], lam[ok]))
             out[f"cusp_{target}"] += share * weight * vals
     return out
 
 
+class AliasedResult(Result):
+    """A :class:`twoel.results.Result` whose :attr:`ALIASES` (old name -> current name) also
+    work as attributes, so that renamed fields keep their old public names."""
+
+    def __getattr__(self, name):
+        target = type(self).ALIASES.get(name)
+        if target is None:
+            raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
+        return getattr(self, target)
+
+
 @dataclass(frozen=True, repr=False)
-class OperatorValues(Result):
+class OperatorValues(AliasedResult):
     """Expectation values of one normalized S state (per electron for one-electron operators).
 
     Attributes
@@ -177,7 +200,10 @@ class OperatorValues(Result):
     p1_fourth : float
         ``⟨p1⁴⟩`` per electron (bohr⁻⁴).
     p4_sum : float
-        ``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴), the Breit–Pauli mass-velocity operator.
+        ``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴), the Breit–Pauli mass-velocity operator (property).
+
+    Operator values keep the operator's name; ``units`` in ``to_dict()`` gives each unit.  Old
+    names ``energy`` and ``kinetic`` stay as attributes and ``to_dict()`` keys.
     """
 
     #: older names (they stay in ``to_dict()``)
@@ -189,7 +215,7 @@ class OperatorValues(Result):
         "inv_r1_r12": "bohr^-2", "inv_r12_squared": "bohr^-2", "p1_dot_p2": "bohr^-2",
         "p1sq_p2sq": "bohr^-4", "delta_r1_direct": "bohr^-3", "delta_r12_direct": "bohr^-3",
         "delta_r1_regularized": "bohr^-3", "delta_r12_regularized": "bohr^-3",
-        "p1_fourth": "bohr^-4", "p4_sum": "bohr^-4"}
+        "p1_fourth": "bohr^-4", "p4_sum": "bohr^-4", "n_functions": "1"}
 
     energy_hartree: float
     Z: float
@@ -210,24 +236,15 @@ class OperatorValues(Result):
     n_functions: int
 
     @property
-    def energy(self) -> float:
-        """Alias of :attr:`energy_hartree` (older name)."""
-        return self.energy_hartree
-
-    @property
-    def kinetic(self) -> float:
-        """Alias of :attr:`kinetic_hartree` (older name)."""
-        return self.kinetic_hartree
-
-    @property
     def p4_sum(self) -> float:
         """``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴)."""
         return 2 * self.p1_fourth
 
     def to_dict(self) -> dict:
-        out = super().to_dict()
+        out = {f.name: getattr(self, f.name) for f in fields(self)}
         out["p4_sum"] = self.p4_sum
-        return out
+        out["units"] = dict(self.UNITS)
+        return self._with_aliases(out)
 
 
 def _as_basis(wavefunction):
@@ -275,7 +292,7 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
     if matrices_out is not None:
         matrices_out["system"] = m
         matrices_out["p1_dot_p2"] = mats["p1_dot_p2"]
-    coalescence = coalescence_matrices(basis)
+    coalescence = coalescence_matrices(basis, cusps=False)
     E = float(energy)
     return OperatorValues(
         energy_hartree=E, Z=float(Z), kinetic_hartree=kinetic,
