@@ -60,6 +60,7 @@ class FiniteMassEnergy(AliasedResult):
         "energy_first_order": "energy_first_order_hartree", "energy_exact": "energy_exact_hartree",
         "second_order": "second_order_hartree"}
     SUMMARY: ClassVar[tuple] = ("nuclear_mass_me", "energy_exact_hartree", "second_order_hartree")
+    DERIVED: ClassVar[tuple] = ("second_order_hartree",)
 
     nuclear_mass_me: float
     reduced_mass_me: float
@@ -75,11 +76,6 @@ class FiniteMassEnergy(AliasedResult):
     def second_order_hartree(self) -> float:
         """``E_exact - E_first_order`` (Eh)."""
         return self.energy_exact_hartree - self.energy_first_order_hartree
-
-    def to_dict(self) -> dict:
-        out = super().to_dict()
-        out["second_order_hartree"] = self.second_order_hartree
-        return self._with_aliases(out)
 
 
 def scaled_basis(basis: CorrelatedBasis, factor: float) -> CorrelatedBasis:

@@ -58,6 +58,7 @@ class OneElectronIon(AliasedResult):
     ALIASES: ClassVar[dict] = {**{p: f"{p}_hartree" for p in _PIECES}, "reduced_mass": "reduced_mass_me",
                                "total": "total_hartree"}
     SUMMARY: ClassVar[tuple] = ("Z", "total_hartree")
+    DERIVED: ClassVar[tuple] = ("total_hartree",)
 
     Z: float
     reduced_mass_me: float
@@ -71,11 +72,6 @@ class OneElectronIon(AliasedResult):
     @property
     def total_hartree(self) -> float:
         return sum(getattr(self, f"{p}_hartree") for p in _PIECES)
-
-    def to_dict(self) -> dict:
-        out = super().to_dict()
-        out["total_hartree"] = self.total_hartree
-        return self._with_aliases(out)
 
 
 def dirac_1s(Z: float, reduced_mass: float = 1.0) -> float:

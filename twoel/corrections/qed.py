@@ -121,6 +121,7 @@ class QEDCorrection(AliasedResult):
                                "araki_sucher": "araki_sucher_hartree",
                                "alpha4_radiative": "alpha4_radiative_hartree", "alpha3": "alpha3_hartree"}
     SUMMARY: ClassVar[tuple] = ("alpha3_hartree", "alpha4_radiative_hartree")
+    DERIVED: ClassVar[tuple] = ("alpha3_hartree",)
 
     one_electron_hartree: float
     two_electron_hartree: float
@@ -131,11 +132,6 @@ class QEDCorrection(AliasedResult):
     @property
     def alpha3_hartree(self) -> float:
         return self.one_electron_hartree + self.two_electron_hartree + self.araki_sucher_hartree
-
-    def to_dict(self) -> dict:
-        out = super().to_dict()
-        out["alpha3_hartree"] = self.alpha3_hartree
-        return self._with_aliases(out)
 
 
 def qed_correction(Z: float, state, delta_r1: float, delta_r12: float, araki_sucher: float,

@@ -71,6 +71,7 @@ class BreitPauli(AliasedResult):
                                "darwin_two_electron_direct": "darwin_two_electron_direct_hartree",
                                "total": "total_hartree", "total_direct": "total_direct_hartree"}
     SUMMARY: ClassVar[tuple] = ("total_hartree", "mass_velocity_hartree", "darwin_one_electron_hartree")
+    DERIVED: ClassVar[tuple] = ("total_hartree", "total_direct_hartree")
 
     mass_velocity_hartree: float
     darwin_one_electron_hartree: float
@@ -95,12 +96,6 @@ class BreitPauli(AliasedResult):
     def _contact_ratio(self) -> float:
         two = self.darwin_two_electron_hartree
         return 0.0 if two == 0 else self.spin_spin_contact_hartree / two
-
-    def to_dict(self) -> dict:
-        out = super().to_dict()
-        out["total_hartree"] = self.total_hartree
-        out["total_direct_hartree"] = self.total_direct_hartree
-        return self._with_aliases(out)
 
 
 def spin_product(state: State) -> float:

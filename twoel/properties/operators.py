@@ -52,7 +52,7 @@ from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.pairs import UNIT, basis_kind, contract, operator_matrices
-from twoel.results import Result
+from twoel.results import Result, _plain
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
 MULTIPLICATIVE = {
@@ -169,7 +169,16 @@ def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
 
 class AliasedResult(Result):
     """A :class:`twoel.results.Result` whose :attr:`ALIASES` (old name -> current name) also
-    work as attributes, so that renamed fields keep their old public names."""
+    work as attributes, so that renamed fields keep their old public names; the properties
+    named in :attr:`DERIVED` (e.g. totals) are added to ``to_dict()``."""
+
+    #: properties added to ``to_dict()`` after the fields
+    DERIVED: ClassVar[tuple[str, ...]] = ()
+
+    def to_dict(self) -> dict:
+        out = {f.name: _plain(getattr(self, f.name)) for f in fields(self) if f.compare}
+        out.update({name: getattr(self, name) for name in self.DERIVED})
+        return self._with_aliases(out)
 
     def __getattr__(self, name):
         target = type(self).ALIASES.get(name)
@@ -240,11 +249,10 @@ class OperatorValues(AliasedResult):
         """``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴)."""
         return 2 * self.p1_fourth
 
+    DERIVED: ClassVar[tuple] = ("p4_sum",)
+
     def to_dict(self) -> dict:
-        out = {f.name: getattr(self, f.name) for f in fields(self)}
-        out["p4_sum"] = self.p4_sum
-        out["units"] = dict(self.UNITS)
-        return self._with_aliases(out)
+        return {**super().to_dict(), "units": dict(self.UNITS)}
 
 
 def _as_basis(wavefunction):
