@@ -265,7 +265,7 @@ def _as_basis(wavefunction):
 
 
 def operator_values(wavefunction, Z: float, energy: float | None = None,
-                    matrices_out: dict | None = None) -> OperatorValues:
+                    matrices_out: dict | None = None, *, repulsion: float = 1.0) -> OperatorValues:
     """All expectation values used by the corrections, for one wavefunction.
 
     Parameters
@@ -279,6 +279,9 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
     matrices_out : dict, optional
         If given, receives the basis matrices (``"system"``: SystemMatrices, ``"p1_dot_p2"``)
         for reuse (e.g. by :func:`twoel.corrections.finite_mass.finite_mass_energy`).
+    repulsion : float
+        ``λ`` of the Hamiltonian ``T + V`` the regularized forms assume (1 for the atom; 0 for
+        the hydrogenic model, see the module docstring).
     """
     basis, c = _as_basis(wavefunction)
     m = build_matrices(basis)
@@ -292,7 +295,7 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
     kinetic = ev(m.kinetic)
     values = {"inv_r1": 0.5 * ev(m.nuclear), "inv_r12": ev(m.repulsion)}
     if energy is None:
-        energy = kinetic - 2 * Z * values["inv_r1"] + values["inv_r12"]
+        energy = kinetic - 2 * Z * values["inv_r1"] + repulsion * values["inv_r12"]
     specs = {name: spec for name, spec in MULTIPLICATIVE.items() if name not in ("inv_r1", "inv_r12")}
     specs.update(DERIVATIVE)
     mats = operator_matrices(basis, specs)
@@ -308,6 +311,6 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
                                            "inv_r1_r12", "inv_r12_squared", "p1_dot_p2", "p1sq_p2sq")},
         delta_r1_direct=ev(contract(coalescence["delta_r1"], basis.contraction)),
         delta_r12_direct=ev(contract(coalescence["delta_r12"], basis.contraction)),
-        delta_r1_regularized=delta_r1_regularized(E, values, Z),
-        delta_r12_regularized=delta_r12_regularized(E, values, Z),
-        p1_fourth=p1_fourth(E, values, Z), n_functions=basis.size)
+        delta_r1_regularized=delta_r1_regularized(E, values, Z, repulsion),
+        delta_r12_regularized=delta_r12_regularized(E, values, Z, repulsion),
+        p1_fourth=p1_fourth(E, values, Z, repulsion), n_functions=basis.size)
