@@ -19,7 +19,8 @@ the two is the second-order mass-polarization energy (reported).
 
 from __future__ import annotations
 
-from dataclasses import asdict, dataclass, replace
+from dataclasses import dataclass, replace
+from typing import ClassVar
 
 import numpy as np
 
@@ -27,32 +28,54 @@ from twoel.solver.eigen import solve_generalized
 from twoel.errors import UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.pairs import operator_matrices
-from twoel.properties.operators import MASS_POLARIZATION
+from twoel.properties.operators import MASS_POLARIZATION, AliasedResult
 
 
-@dataclass(frozen=True)
-class FiniteMassEnergy:
-    """Finite-mass energies of one state (Eh)."""
+@dataclass(frozen=True, repr=False)
+class FiniteMassEnergy(AliasedResult):
+    """Finite-mass energies of one state (Eh).
+
+    Attributes
+    ----------
+    nuclear_mass_me, reduced_mass_me : float
+        ``M/m_e`` and ``μ/m_e``.
+    energy_infinite_mass_hartree : float
+        Eigenvalue of the infinite-mass Hamiltonian (Eh).
+    p1_dot_p2 : float
+        ``⟨p1·p2⟩`` of that state (bohr⁻²).
+    reduced_mass_shift_hartree, mass_polarization_first_order_hartree : float
+        ``(μ - 1) E_∞`` and ``(μ²/M)⟨p1·p2⟩`` (Eh).
+    energy_first_order_hartree, energy_exact_hartree : float
+        ``E_M`` to first order in ``1/M`` and from the exact finite-mass Hamiltonian (Eh).
+    second_order_hartree : float
+        ``E_exact - E_first_order`` (property, Eh).
+
+    The names without ``_hartree`` / ``_me`` are the older ones (aliases, in ``to_dict()`` too).
+    """
+
+    ALIASES: ClassVar[dict] = {
+        "reduced_mass": "reduced_mass_me", "energy_infinite_mass": "energy_infinite_mass_hartree",
+        "reduced_mass_shift": "reduced_mass_shift_hartree",
+        "mass_polarization_first_order": "mass_polarization_first_order_hartree",
+        "energy_first_order": "energy_first_order_hartree", "energy_exact": "energy_exact_hartree",
+        "second_order": "second_order_hartree"}
+    SUMMARY: ClassVar[tuple] = ("nuclear_mass_me", "energy_exact_hartree", "second_order_hartree")
+    DERIVED: ClassVar[tuple] = ("second_order_hartree",)
 
     nuclear_mass_me: float
-    reduced_mass: float
-    energy_infinite_mass: float
+    reduced_mass_me: float
+    energy_infinite_mass_hartree: float
     p1_dot_p2: float
-    reduced_mass_shift: float
-    mass_polarization_first_order: float
-    energy_first_order: float
-    energy_exact: float
+    reduced_mass_shift_hartree: float
+    mass_polarization_first_order_hartree: float
+    energy_first_order_hartree: float
+    energy_exact_hartree: float
     n_functions: int
 
     @property
-    def second_order(self) -> float:
+    def second_order_hartree(self) -> float:
         """``E_exact - E_first_order`` (Eh)."""
-        return self.energy_exact - self.energy_first_order
-
-    def to_dict(self) -> dict:
-        d = asdict(self)
-        d["second_order"] = self.second_order
-        return d
+        return self.energy_exact_hartree - self.energy_first_order_hartree
 
 
 def scaled_basis(basis: CorrelatedBasis, factor: float) -> CorrelatedBasis:
@@ -102,7 +125,7 @@ def finite_mass_energy(basis: CorrelatedBasis, Z: float, nuclear_mass_me: float,
     exact = mu * float(eig.values[root])
     first = mu * energy_infinite_mass + mu * mu / M * p1_dot_p2
     return FiniteMassEnergy(
-        nuclear_mass_me=M, reduced_mass=mu, energy_infinite_mass=energy_infinite_mass,
-        p1_dot_p2=p1_dot_p2, reduced_mass_shift=(mu - 1.0) * energy_infinite_mass,
-        mass_polarization_first_order=mu * mu / M * p1_dot_p2, energy_first_order=first,
-        energy_exact=exact, n_functions=basis.size)
+        nuclear_mass_me=M, reduced_mass_me=mu, energy_infinite_mass_hartree=energy_infinite_mass,
+        p1_dot_p2=p1_dot_p2, reduced_mass_shift_hartree=(mu - 1.0) * energy_infinite_mass,
+        mass_polarization_first_order_hartree=mu * mu / M * p1_dot_p2, energy_first_order_hartree=first,
+        energy_exact_hartree=exact, n_functions=basis.size)

@@ -11,15 +11,23 @@ mass by less than 1e-7 relative and the energies by less than 1e-11 relative.
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass
+from dataclasses import dataclass
+from typing import ClassVar
 
 from twoel import constants
 from twoel.errors import InputError, UnsupportedError
+from twoel.results import Result
 
 
-@dataclass(frozen=True)
-class NuclearMass:
-    """A nuclear mass in electron masses, with its provenance."""
+@dataclass(frozen=True, repr=False)
+class NuclearMass(Result):
+    """A nuclear mass in electron masses, with its provenance.
+
+    ``atomic_mass_u`` is the tabulated atomic mass (u) it came from (``None`` for an explicit
+    mass); ``reduced_mass_me`` (``μ/m_e``, property, also in ``to_dict()``).
+    """
+
+    SUMMARY: ClassVar[tuple] = ("Z", "mass_number", "nuclear_mass_me")
 
     Z: int
     mass_number: int | None
@@ -33,18 +41,23 @@ class NuclearMass:
         return self.nuclear_mass_me
 
     @property
-    def reduced_mass(self) -> float:
+    def reduced_mass_me(self) -> float:
         """``μ / m_e = M / (M + m_e)``."""
         return self.nuclear_mass_me / (self.nuclear_mass_me + 1.0)
+
+    @property
+    def reduced_mass(self) -> float:
+        """Alias of :attr:`reduced_mass_me` (older name)."""
+        return self.reduced_mass_me
 
     @property
     def label(self) -> str:
         return f"{self.mass_number}" if self.mass_number else "explicit"
 
     def to_dict(self) -> dict:
-        d = asdict(self)
-        d["reduced_mass_me"] = self.reduced_mass
-        return d
+        out = super().to_dict()
+        out["reduced_mass_me"] = self.reduced_mass_me
+        return out
 
 
 def _element(Z: int):

@@ -23,34 +23,55 @@ Energies in hartree (Eh) of the hydrogen-like 1s ion of charge ``Z`` and reduced
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass
+from dataclasses import dataclass
+from typing import ClassVar
 
 from twoel import constants
-from twoel.corrections.qed import bethe_log_hydrogenic_1s, alpha4_radiative_coefficient
+from twoel.corrections.qed import alpha4_radiative_factor, bethe_log_hydrogenic_1s, one_electron_qed_factor
+from twoel.properties.operators import AliasedResult, hydrogenic_delta_1s
 
 
-@dataclass(frozen=True)
-class OneElectronIon:
-    """Energy pieces of the 1s ion (Eh)."""
+_PIECES = ("nonrelativistic_infinite_mass", "finite_mass", "relativistic", "qed_alpha3", "qed_alpha4")
+
+
+@dataclass(frozen=True, repr=False)
+class OneElectronIon(AliasedResult):
+    """Energy pieces of the 1s ion (Eh).
+
+    Attributes
+    ----------
+    Z : float
+    reduced_mass_me : float
+        ``μ/m_e``.
+    nonrelativistic_infinite_mass_hartree, finite_mass_hartree, relativistic_hartree,
+    qed_alpha3_hartree, qed_alpha4_hartree : float
+        ``-Z²/2``, its reduced-mass change, Dirac minus nonrelativistic, the α(Zα)⁴ and
+        α(Zα)⁵ terms (Eh).
+    bethe_log : float
+        ``ln(k0/R∞)`` of the 1s state (dimensionless).
+    total_hartree : float
+        Sum of the pieces (property).
+
+    The names without ``_hartree`` / ``_me`` are the older ones (aliases, in ``to_dict()`` too).
+    """
+
+    ALIASES: ClassVar[dict] = {**{p: f"{p}_hartree" for p in _PIECES}, "reduced_mass": "reduced_mass_me",
+                               "total": "total_hartree"}
+    SUMMARY: ClassVar[tuple] = ("Z", "total_hartree")
+    DERIVED: ClassVar[tuple] = ("total_hartree",)
 
     Z: float
-    reduced_mass: float
-    nonrelativistic_infinite_mass: float
-    finite_mass: float
-    relativistic: float
-    qed_alpha3: float
-    qed_alpha4: float
+    reduced_mass_me: float
+    nonrelativistic_infinite_mass_hartree: float
+    finite_mass_hartree: float
+    relativistic_hartree: float
+    qed_alpha3_hartree: float
+    qed_alpha4_hartree: float
     bethe_log: float
 
     @property
-    def total(self) -> float:
-        return (self.nonrelativistic_infinite_mass + self.finite_mass + self.relativistic
-                + self.qed_alpha3 + self.qed_alpha4)
-
-    def to_dict(self) -> dict:
-        d = asdict(self)
-        d["total"] = self.total
-        return d
+    def total_hartree(self) -> float:
+        return sum(getattr(self, f"{p}_hartree") for p in _PIECES)
 
 
 def dirac_1s(Z: float, reduced_mass: float = 1.0) -> float:
@@ -66,21 +87,17 @@ def dirac_1s(Z: float, reduced_mass: float = 1.0) -> float:
 
 def lamb_shift_1s(Z: float, reduced_mass: float = 1.0) -> float:
     """Leading α(Zα)⁴ Lamb shift of the 1s level (Eh), incl. vacuum polarization."""
-    alpha = constants.FINE_STRUCTURE.value
-    delta = Z**3 / math.pi * reduced_mass**3  # ⟨δ³(r)⟩ of 1s in reduced units
-    bethe = bethe_log_hydrogenic_1s(Z)
-    return (4 * Z * alpha**3 / 3) * (math.log(1 / alpha**2) - bethe + 19 / 30) * delta
+    # ⟨δ³(r)⟩ of 1s in reduced units, the same operator as the atom's
+    return one_electron_qed_factor(Z, bethe_log_hydrogenic_1s(Z)) * hydrogenic_delta_1s(Z, reduced_mass)
 
 
 def one_electron_ion(Z: float, reduced_mass: float = 1.0) -> OneElectronIon:
     """All energy pieces of the hydrogen-like 1s ion (Eh)."""
-    alpha = constants.FINE_STRUCTURE.value
     nonrel = -0.5 * Z * Z
-    delta = Z**3 / math.pi * reduced_mass**3
     return OneElectronIon(
-        Z=float(Z), reduced_mass=reduced_mass, nonrelativistic_infinite_mass=nonrel,
-        finite_mass=nonrel * (reduced_mass - 1.0),
-        relativistic=dirac_1s(Z, reduced_mass) - nonrel * reduced_mass,
-        qed_alpha3=lamb_shift_1s(Z, reduced_mass),
-        qed_alpha4=alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient() * delta,
+        Z=float(Z), reduced_mass_me=reduced_mass, nonrelativistic_infinite_mass_hartree=nonrel,
+        finite_mass_hartree=nonrel * (reduced_mass - 1.0),
+        relativistic_hartree=dirac_1s(Z, reduced_mass) - nonrel * reduced_mass,
+        qed_alpha3_hartree=lamb_shift_1s(Z, reduced_mass),
+        qed_alpha4_hartree=alpha4_radiative_factor(Z) * hydrogenic_delta_1s(Z, reduced_mass),
         bethe_log=bethe_log_hydrogenic_1s(Z))

@@ -31,9 +31,11 @@ dominates; for He 1¹S it is off by 3e-4, for 2³S by 6e-3).
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass
+from dataclasses import dataclass
+from typing import ClassVar
 
 from twoel import constants
+from twoel.properties.operators import AliasedResult
 from twoel.reference import all_references
 from twoel.system import State
 
@@ -43,6 +45,20 @@ BETHE_TABLE = "bethe_logarithms.csv"
 def alpha4_radiative_coefficient() -> float:
     """``427/96 - 2 ln 2`` of the one-loop α(Zα)⁵ term."""
     return 427.0 / 96.0 - 2.0 * math.log(2.0)
+
+
+def one_electron_qed_factor(Z: float, bethe_log: float) -> float:
+    """``(4Zα³/3)[19/30 + ln(1/α²) - ln(k0/R∞)]`` (Eh·bohr³): the α³ one-electron energy per unit
+    ``⟨Σ_i δ³(r_i)⟩`` (atom and 1s ion alike)."""
+    alpha = constants.FINE_STRUCTURE.value
+    return (4 * Z * alpha**3 / 3) * (19 / 30 + math.log(1 / alpha**2) - bethe_log)
+
+
+def alpha4_radiative_factor(Z: float) -> float:
+    """``π Z² α⁴ (427/96 - 2 ln 2)`` (Eh·bohr³): the one-loop α(Zα)⁵ energy per unit
+    ``⟨Σ_i δ³(r_i)⟩`` (atom and 1s ion alike)."""
+    alpha = constants.FINE_STRUCTURE.value
+    return alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient()
 
 
 def _rows():
@@ -55,14 +71,16 @@ def bethe_log_hydrogenic_1s(Z: float) -> float:
     return row.value + 2.0 * math.log(Z)
 
 
-@dataclass(frozen=True)
-class BetheLog:
+@dataclass(frozen=True, repr=False)
+class BetheLog(AliasedResult):
+    """A Bethe logarithm ``ln(k0/R∞)`` (dimensionless) with its source.
+
+    ``approximate`` is true for the hydrogenic-scaling approximation (no published value).
+    """
+
     value: float
     source: str
     approximate: bool
-
-    def to_dict(self) -> dict:
-        return asdict(self)
 
 
 def bethe_logarithm(Z: float, state: str | State) -> BetheLog:
@@ -81,24 +99,39 @@ def bethe_logarithm(Z: float, state: str | State) -> BetheLog:
                     True)
 
 
-@dataclass(frozen=True)
-class QEDCorrection:
-    """α³ QED pieces of a two-electron state (Eh, finite-mass scaled)."""
+@dataclass(frozen=True, repr=False)
+class QEDCorrection(AliasedResult):
+    """α³ QED pieces of a two-electron state (Eh, finite-mass scaled).
 
-    one_electron: float
-    two_electron: float
-    araki_sucher: float
-    alpha4_radiative: float
+    Attributes
+    ----------
+    one_electron_hartree, two_electron_hartree, araki_sucher_hartree : float
+        The three α³ terms of the module formula (Eh).
+    alpha4_radiative_hartree : float
+        The partial one-loop α⁴ term (Eh).
+    bethe_log : BetheLog
+        The Bethe logarithm used.
+    alpha3_hartree : float
+        Sum of the α³ terms (property).
+
+    The names without ``_hartree`` are the older ones (aliases, in ``to_dict()`` too).
+    """
+
+    ALIASES: ClassVar[dict] = {"one_electron": "one_electron_hartree", "two_electron": "two_electron_hartree",
+                               "araki_sucher": "araki_sucher_hartree",
+                               "alpha4_radiative": "alpha4_radiative_hartree", "alpha3": "alpha3_hartree"}
+    SUMMARY: ClassVar[tuple] = ("alpha3_hartree", "alpha4_radiative_hartree")
+    DERIVED: ClassVar[tuple] = ("alpha3_hartree",)
+
+    one_electron_hartree: float
+    two_electron_hartree: float
+    araki_sucher_hartree: float
+    alpha4_radiative_hartree: float
     bethe_log: BetheLog
 
     @property
-    def alpha3(self) -> float:
-        return self.one_electron + self.two_electron + self.araki_sucher
-
-    def to_dict(self) -> dict:
-        d = asdict(self)
-        d["alpha3"] = self.alpha3
-        return d
+    def alpha3_hartree(self) -> float:
+        return self.one_electron_hartree + self.two_electron_hartree + self.araki_sucher_hartree
 
 
 def qed_correction(Z: float, state, delta_r1: float, delta_r12: float, araki_sucher: float,
@@ -107,9 +140,10 @@ def qed_correction(Z: float, state, delta_r1: float, delta_r12: float, araki_suc
     alpha = constants.FINE_STRUCTURE.value
     bl = bethe_logarithm(Z, state)
     scale = reduced_mass**3
-    one = (4 * Z * alpha**3 / 3) * (19 / 30 + math.log(1 / alpha**2) - bl.value) * 2 * delta_r1 * scale
+    # ⟨δ³(r1) + δ³(r2)⟩ = 2⟨δ³(r1)⟩ (per-electron convention of twoel.properties.operators)
+    one = one_electron_qed_factor(Z, bl.value) * 2 * delta_r1 * scale
     two = alpha**3 * (164 / 15 + 14 / 3 * math.log(alpha)) * delta_r12 * scale
     # P(1/r³) scales as μ³ (1 + 3 ln μ term from the log); the log part is below 1e-4 relative
     arak = -alpha**3 * 7 / (6 * math.pi) * araki_sucher * scale
-    a4 = alpha**4 * Z * Z * math.pi * alpha4_radiative_coefficient() * 2 * delta_r1 * scale
+    a4 = alpha4_radiative_factor(Z) * 2 * delta_r1 * scale
     return QEDCorrection(one, two, arak, a4, bl)

@@ -29,11 +29,13 @@ Validity: first order in α² misses terms of relative size ``(Zα)²`` of this 
 
 from __future__ import annotations
 
-from dataclasses import asdict, dataclass
+from dataclasses import dataclass
 from math import pi
+from typing import ClassVar
 
 from twoel import constants
 from twoel.errors import UnsupportedError
+from twoel.properties.operators import AliasedResult
 from twoel.system import State
 
 #: Zα above which the spectrum output cautions that first-order Breit–Pauli is inadequate.
@@ -43,38 +45,57 @@ from twoel.system import State
 CAUTION_Z_ALPHA = 0.05
 
 
-@dataclass(frozen=True)
-class BreitPauli:
-    """α² corrections of an S state (Eh, already multiplied by α² and μ/m)."""
+_TERMS = ("mass_velocity", "darwin_one_electron", "darwin_two_electron", "spin_spin_contact",
+          "orbit_orbit")
 
-    mass_velocity: float
-    darwin_one_electron: float
-    darwin_two_electron: float
-    spin_spin_contact: float
-    orbit_orbit: float
-    darwin_one_electron_direct: float
-    darwin_two_electron_direct: float
+
+@dataclass(frozen=True, repr=False)
+class BreitPauli(AliasedResult):
+    """α² corrections of an S state (Eh, already multiplied by α² and μ/m).
+
+    Attributes
+    ----------
+    mass_velocity_hartree, darwin_one_electron_hartree, darwin_two_electron_hartree,
+    spin_spin_contact_hartree, orbit_orbit_hartree : float
+        The terms with the regularized δ and ``⟨p1⁴⟩`` (Eh).
+    darwin_one_electron_direct_hartree, darwin_two_electron_direct_hartree : float
+        The Darwin terms with the direct δ values (Eh).
+    total_hartree, total_direct_hartree : float
+        Their sums (properties; the direct total also uses the direct δ(r12) in the contact term).
+
+    The names without ``_hartree`` are the older ones (aliases, in ``to_dict()`` too).
+    """
+
+    ALIASES: ClassVar[dict] = {**{t: f"{t}_hartree" for t in _TERMS},
+                               "darwin_one_electron_direct": "darwin_one_electron_direct_hartree",
+                               "darwin_two_electron_direct": "darwin_two_electron_direct_hartree",
+                               "total": "total_hartree", "total_direct": "total_direct_hartree"}
+    SUMMARY: ClassVar[tuple] = ("total_hartree", "mass_velocity_hartree", "darwin_one_electron_hartree")
+    DERIVED: ClassVar[tuple] = ("total_hartree", "total_direct_hartree")
+
+    mass_velocity_hartree: float
+    darwin_one_electron_hartree: float
+    darwin_two_electron_hartree: float
+    spin_spin_contact_hartree: float
+    orbit_orbit_hartree: float
+    darwin_one_electron_direct_hartree: float
+    darwin_two_electron_direct_hartree: float
 
     @property
-    def total(self) -> float:
-        return (self.mass_velocity + self.darwin_one_electron + self.darwin_two_electron
-                + self.spin_spin_contact + self.orbit_orbit)
+    def total_hartree(self) -> float:
+        return sum(getattr(self, f"{t}_hartree") for t in _TERMS)
 
     @property
-    def total_direct(self) -> float:
+    def total_direct_hartree(self) -> float:
         """The same total with the direct (unregularized) delta values."""
-        return (self.total - self.darwin_one_electron - self.darwin_two_electron - self.spin_spin_contact
-                + self.darwin_one_electron_direct + self.darwin_two_electron_direct * (1 + self._contact_ratio))
+        return (self.total_hartree - self.darwin_one_electron_hartree - self.darwin_two_electron_hartree
+                - self.spin_spin_contact_hartree + self.darwin_one_electron_direct_hartree
+                + self.darwin_two_electron_direct_hartree * (1 + self._contact_ratio))
 
     @property
     def _contact_ratio(self) -> float:
-        return 0.0 if self.darwin_two_electron == 0 else self.spin_spin_contact / self.darwin_two_electron
-
-    def to_dict(self) -> dict:
-        d = asdict(self)
-        d["total"] = self.total
-        d["total_direct"] = self.total_direct
-        return d
+        two = self.darwin_two_electron_hartree
+        return 0.0 if two == 0 else self.spin_spin_contact_hartree / two
 
 
 def spin_product(state: State) -> float:
@@ -106,10 +127,10 @@ def breit_pauli_s(Z: float, state, values, orbit_orbit: float, reduced_mass: flo
     d12 = values.delta_r12_regularized if state.is_singlet else 0.0
     d12_direct = values.delta_r12_direct if state.is_singlet else 0.0
     return BreitPauli(
-        mass_velocity=-a2 * values.p4_sum / 8,
-        darwin_one_electron=a2 * Z * pi * values.delta_r1_regularized,
-        darwin_two_electron=-a2 * pi * d12,
-        spin_spin_contact=-a2 * 8 * pi / 3 * ss * d12,
-        orbit_orbit=-a2 * orbit_orbit / 2,
-        darwin_one_electron_direct=a2 * Z * pi * values.delta_r1_direct,
-        darwin_two_electron_direct=-a2 * pi * d12_direct)
+        mass_velocity_hartree=-a2 * values.p1_fourth / 4,  # -⅛⟨p1⁴ + p2⁴⟩ = -¼⟨p1⁴⟩ per electron
+        darwin_one_electron_hartree=a2 * Z * pi * values.delta_r1_regularized,
+        darwin_two_electron_hartree=-a2 * pi * d12,
+        spin_spin_contact_hartree=-a2 * 8 * pi / 3 * ss * d12,
+        orbit_orbit_hartree=-a2 * orbit_orbit / 2,
+        darwin_one_electron_direct_hartree=a2 * Z * pi * values.delta_r1_direct,
+        darwin_two_electron_direct_hartree=-a2 * pi * d12_direct)

@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import time
 from dataclasses import dataclass, field
+from typing import ClassVar
 
 import numpy as np
 
@@ -32,7 +33,7 @@ from twoel.errors import InputError, NotBoundError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.basis.hylleraas import omega_terms
 from twoel.reference import all_references
-from twoel.results import Wavefunction
+from twoel.results import Result, Wavefunction
 from twoel.system import Ion, State
 from twoel.units import convert_energy, hartree_to
 from twoel.corrections.finite_mass import finite_mass_energy
@@ -109,9 +110,19 @@ def _cm1(value_hartree: float) -> float:
     return hartree_to(value_hartree, "cm-1")
 
 
-@dataclass(frozen=True)
-class SpectrumResult:
-    """Itemized ionization energy of one state (contributions in Eh; see ``to_dict`` for cm⁻¹)."""
+@dataclass(frozen=True, repr=False)
+class SpectrumResult(Result):
+    """Itemized ionization energy of one state (contributions in Eh; see ``to_dict`` for cm⁻¹).
+
+    ``residual_cm1`` is ``I_computed - I_reference`` (cm⁻¹; ``residual`` is its older name).
+    ``atom``, ``threshold`` and ``bethe_log`` hold the ``to_dict()`` records of the pieces
+    (:class:`~twoel.properties.operators.OperatorValues`, :class:`.BreitPauli`,
+    :class:`.QEDCorrection`, :class:`.FiniteMassEnergy`, :class:`.OneElectronIon`,
+    :class:`.BetheLog`).
+    """
+
+    ALIASES: ClassVar[dict] = {"residual": "residual_cm1"}
+    SUMMARY: ClassVar[tuple] = ("ion", "state", "ionization_energy_cm1")
 
     Z: float
     ion: str
@@ -145,7 +156,7 @@ class SpectrumResult:
         contributions_cm1 = {k: _cm1(v) for k, v in self.contributions_hartree.items()}
         contributions_ev = {k: hartree_to(v, "ev") for k, v in self.contributions_hartree.items()}
         nonrel = contributions_cm1["nonrelativistic"]
-        return {
+        return self._with_aliases({
             "Z": self.Z, "ion": self.ion, "state": self.state, "isotope": self.isotope,
             "nuclear_mass_me": self.nuclear_mass_me,
             "ionization_energy_cm1": self.ionization_energy_cm1,
@@ -153,7 +164,7 @@ class SpectrumResult:
             "ionization_energy_hartree": self.ionization_energy_hartree,
             "contributions_cm1": contributions_cm1, "contributions_ev": contributions_ev,
             "reference_cm1": self.reference_cm1, "reference_source": self.reference_source,
-            "residual": self.residual_cm1, "residual_cm1": self.residual_cm1,
+            "residual_cm1": self.residual_cm1,
             "residual_nonrelativistic_cm1": None if self.reference_cm1 is None else nonrel - self.reference_cm1,
             "nist_cm1": self.nist_cm1,
             "nist_source": None if self.nist_cm1 is None else
@@ -161,7 +172,7 @@ class SpectrumResult:
             "residual_nist_cm1": None if self.nist_cm1 is None else self.ionization_energy_cm1 - self.nist_cm1,
             "atom": self.atom, "threshold": self.threshold, "bethe_log": self.bethe_log,
             "cautions": list(self.cautions), "notes": list(self.notes), "provenance": self.provenance,
-        }
+        })
 
 
 def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mass_value: float | None = None,
@@ -194,7 +205,7 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
         raise UnsupportedError(f"{st.label}: the corrections are implemented for S states only; "
                                "the 2^3P fine structure needs P-state wavefunctions")
     mass = nuclear_mass(int(Zf), isotope=isotope, mass=nuclear_mass_value, mass_unit=mass_unit)
-    mu = mass.reduced_mass
+    mu = mass.reduced_mass_me
     if wavefunction is None:
         basis = preset_basis(Zf, st, quality)
         from twoel.basis.correlated import build_matrices
@@ -216,7 +227,7 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
         raise UnsupportedError("the corrections need a correlated S-state basis wavefunction")
     mats: dict = {}
     values = operator_values(wavefunction, Zf, energy, matrices_out=mats)
-    energy = values.energy
+    energy = values.energy_hartree
     if not energy < ion.threshold_hartree:
         raise NotBoundError(f"{ion.label} {st.label}: energy {energy:.10f} Eh is not below the "
                             f"threshold {ion.threshold_hartree:.10f} Eh in this basis")
@@ -234,11 +245,11 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
                          quad["araki_sucher"], mu)
     thr = one_electron_ion(Zf, mu)
     contributions = {
-        "nonrelativistic": thr.nonrelativistic_infinite_mass - energy,
-        "finite_mass": thr.finite_mass - (fm.energy_exact - energy),
-        "alpha2": thr.relativistic - bp.total,
-        "alpha3": thr.qed_alpha3 - qed.alpha3,
-        "alpha4_radiative": thr.qed_alpha4 - qed.alpha4_radiative,
+        "nonrelativistic": thr.nonrelativistic_infinite_mass_hartree - energy,
+        "finite_mass": thr.finite_mass_hartree - (fm.energy_exact_hartree - energy),
+        "alpha2": thr.relativistic_hartree - bp.total_hartree,
+        "alpha3": thr.qed_alpha3_hartree - qed.alpha3_hartree,
+        "alpha4_radiative": thr.qed_alpha4_hartree - qed.alpha4_radiative_hartree,
     }
     reference = measured_reference(Zf, st)
     ref_cm1 = None

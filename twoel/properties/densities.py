@@ -20,20 +20,29 @@ quadrature, split at the kink ``r2 = r``.  The normalization uses the analytic o
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import ClassVar
 
 import numpy as np
 
 from twoel.errors import InputError
+from twoel.integrals.closed_forms import SIXTEEN_PI_SQUARED
 from twoel.integrals.pairs import basis_kind, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
-from twoel.results import EnergyResult, Wavefunction
+from twoel.results import EnergyResult, Result, Wavefunction
 
-EIGHT_PI_SQUARED = 8.0 * np.pi**2
+#: angular factor left after the Euler angles (half the 16π² of the master integral; the other
+#: factor 2 is the exchange term counted in the normalization)
+EIGHT_PI_SQUARED = SIXTEEN_PI_SQUARED / 2
 
 
-@dataclass(frozen=True)
-class Distribution:
-    """A distribution on a grid: ``values[i]`` at ``grid[i]`` (bohr, bohr⁻¹)."""
+@dataclass(frozen=True, repr=False)
+class Distribution(Result):
+    """A distribution on a grid: ``values[i]`` (bohr⁻¹) at ``grid[i]`` (bohr).
+
+    ``to_dict()`` names them with their units: ``grid_bohr``, ``values_per_bohr``.
+    """
+
+    SUMMARY: ClassVar[tuple] = ("kind",)
 
     kind: str
     grid: np.ndarray
@@ -123,6 +132,21 @@ def _triangle_integral(fixed, function, length, n_outer=48, n_inner=24):
     return total
 
 
+def _distribution(kind: str, obj, grid, points: int, extent: float) -> Distribution:
+    """``D`` (``kind="radial"``, fixed ``r1``) or ``P`` (``kind="pair"``, fixed ``r12``)."""
+    basis, d, norm = _unpack(obj)
+    length = _scale(basis)
+    x = _grid(grid, points, extent * length)
+    if kind == "radial":
+        def square(fixed, y, z):
+            return _averaged_square(basis, d, fixed, y, z)
+    else:
+        def square(fixed, y, z):
+            return _averaged_square(basis, d, z, y, fixed)
+    values = EIGHT_PI_SQUARED * x * _triangle_integral(x, square, length) / norm
+    return Distribution(kind, x, values)
+
+
 def radial_density(result_or_wavefunction, grid=None, points: int = 200) -> Distribution:
     """One-electron radial density ``D(r)`` (bohr⁻¹, ``∫ D dr = 1``) on ``grid`` (bohr).
 
@@ -132,22 +156,12 @@ def radial_density(result_or_wavefunction, grid=None, points: int = 200) -> Dist
     grid : array_like, optional
         Radii (bohr, > 0).  Default: ``points`` values up to where the density is negligible.
     """
-    basis, d, norm = _unpack(result_or_wavefunction)
-    length = _scale(basis)
-    r = _grid(grid, points, 12.0 * length)
-    values = EIGHT_PI_SQUARED * r * _triangle_integral(
-        r, lambda x, y, z: _averaged_square(basis, d, x, y, z), length) / norm
-    return Distribution("radial", r, values)
+    return _distribution("radial", result_or_wavefunction, grid, points, 12.0)
 
 
 def pair_distribution(result_or_wavefunction, grid=None, points: int = 200) -> Distribution:
     """Electron-pair distribution ``P(u)`` of ``u = r12`` (bohr⁻¹, ``∫ P du = 1``)."""
-    basis, d, norm = _unpack(result_or_wavefunction)
-    length = _scale(basis)
-    u = _grid(grid, points, 16.0 * length)
-    values = EIGHT_PI_SQUARED * u * _triangle_integral(
-        u, lambda x, y, z: _averaged_square(basis, d, z, y, x), length) / norm
-    return Distribution("pair", u, values)
+    return _distribution("pair", result_or_wavefunction, grid, points, 16.0)
 
 
 def _grid(grid, points: int, extent: float) -> np.ndarray:

@@ -7,26 +7,13 @@ virial ratio and the Kato cusp ratios.  All values are per electron (the states 
 (anti)symmetric, so electron 1 and 2 give the same number), in atomic units (bohr, bohr⁻¹,
 hartree).
 
-δ functions
-    The *direct* forms ``⟨δ³(r1)⟩ = ∫|Ψ(0, r2)|² d³r2`` and ``⟨δ³(r12)⟩`` sample the wave
-    function at one point and converge slowly.  The *regularized* global-operator forms
-    (R. J. Drachman, J. Phys. B 14, 2733 (1981)) follow from ``∇²(1/r) = -4π δ³(r)``, two
-    integrations by parts and ``(∇1² + ∇2²)Ψ = 2(V - E)Ψ``:
-
-    .. math::
-
-        4\pi \langle\delta^3(r_1)\rangle = 4\langle (E - V)\, f\rangle
-            - 2\langle f\, (|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,\quad f = \tfrac12(1/r_1 + 1/r_2),
-
-        4\pi \langle\delta^3(r_{12})\rangle = 2\langle (E - V)/r_{12}\rangle
-            - \langle r_{12}^{-1}(|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,
-
-    with ``V = -Z/r1 - Z/r2 + 1/r12`` and ``E = ⟨H⟩``; their error is second order in the
-    wave-function error.
-
-``⟨p1⁴⟩``
-    From ``(p1² + p2²)Ψ = 2(E - V)Ψ``: ``⟨p1⁴⟩ = 2⟨(E - V)²⟩ - ⟨p1² p2²⟩`` (per electron), with
-    ``⟨p1² p2²⟩ = ∫ (∇1²Ψ)(∇2²Ψ)``.  Written so, no δ-like term appears (a regularized form).
+δ functions and ``⟨p1⁴⟩``
+    Direct ``⟨δ³(r1)⟩ = ∫|Ψ(0, r2)|² d³r2``, ``⟨δ³(r12)⟩`` and the regularized (global-operator)
+    forms of R. J. Drachman, J. Phys. B 14, 2733 (1981), and ``⟨p1⁴⟩ = 2⟨(E - V)²⟩ - ⟨p1² p2²⟩``
+    (regularized): all defined once, with their convention, in :mod:`twoel.properties.operators`
+    (the corrections use the same definitions).  ``E = ⟨H⟩`` of the wave function and
+    ``V = -Z/r1 - Z/r2 + λ/r12``; the regularized error is second order in the wave-function
+    error.
 
 Mass polarization
     ``grad1_dot_grad2`` is ``⟨Ψ|∇1·∇2|Ψ⟩ = -⟨p1·p2⟩`` (bohr⁻²).  The first-order
@@ -43,21 +30,22 @@ Cusp ratios (Kato, Commun. Pure Appl. Math. 10, 151 (1957))
 from __future__ import annotations
 
 import math
-from dataclasses import asdict, dataclass, field
+from dataclasses import dataclass, field
+from typing import ClassVar
 
 import numpy as np
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
-from twoel.integrals.closed_forms import FOUR_PI, radial_integral
 from twoel.integrals.pairs import basis_kind, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
-from twoel.results import EnergyResult, Wavefunction
+from twoel.properties import operators as op
+from twoel.results import EnergyResult, Result, Wavefunction
 
 
 
-@dataclass(frozen=True)
-class ExpectationValues:
+@dataclass(frozen=True, repr=False)
+class ExpectationValues(Result):
     """Expectation values of one normalized state, per electron, atomic units.
 
     Attributes
@@ -109,9 +97,11 @@ class ExpectationValues:
     normalization: float
     notes: tuple = field(default=())
 
+    SUMMARY: ClassVar[tuple] = ("energy_hartree", "delta_r1_regularized", "delta_r12_regularized")
+
     def to_dict(self) -> dict:
-        out = asdict(self)
-        out["notes"] = list(self.notes)
+        """All fields (values in atomic units, see ``units``) and ``units``."""
+        out = super().to_dict()
         out["units"] = dict(UNITS)
         return out
 
@@ -132,33 +122,22 @@ def _half(*monomials):
     return [(0.5, m) for m in monomials]
 
 
-def _operators(Z: float, lam: float) -> dict[str, list]:
-    f1 = _half((-1, 0, 0), (0, -1, 0))
-    f12 = [(1.0, (0, 0, -1))]
-    # V f for f = (1/r1 + 1/r2)/2 and f = 1/r12
-    v_f1 = [(-0.5 * Z, (-2, 0, 0)), (-0.5 * Z, (0, -2, 0)), (-Z, (-1, -1, 0)),
-            (0.5 * lam, (-1, 0, -1)), (0.5 * lam, (0, -1, -1))]
-    v_f12 = [(-Z, (-1, 0, -1)), (-Z, (0, -1, -1)), (lam, (0, 0, -2))]
-    # V² for <(E - V)²>
-    v_sq = [(Z * Z, (-2, 0, 0)), (Z * Z, (0, -2, 0)), (2 * Z * Z, (-1, -1, 0)),
-            (-2 * Z * lam, (-1, 0, -1)), (-2 * Z * lam, (0, -1, -1)), (lam * lam, (0, 0, -2))]
+#: radial moments (per electron) beside the Hamiltonian and the operators of
+#: :mod:`twoel.properties.operators`
+MOMENTS = {
+    "r1": [("unit", _half((1, 0, 0), (0, 1, 0)))],
+    "r1_squared": [("unit", _half((2, 0, 0), (0, 2, 0)))],
+    "r12": [("unit", [(1.0, (0, 0, 1))])],
+    "r12_squared": [("unit", [(1.0, (0, 0, 2))])],
+}
+
+
+def _operators(Z: float = 0.0, lam: float = 1.0) -> dict[str, list]:
+    """The operator set of :func:`expectation_values` (the δ/p⁴ pieces do not depend on Z, λ)."""
     ops = dict(HAMILTONIAN)
-    ops.update({
-        "r1": [("unit", _half((1, 0, 0), (0, 1, 0)))],
-        "r1_squared": [("unit", _half((2, 0, 0), (0, 2, 0)))],
-        "inv_r1": [("unit", f1)],
-        "inv_r1_squared": [("unit", _half((-2, 0, 0), (0, -2, 0)))],
-        "r12": [("unit", [(1.0, (0, 0, 1))])],
-        "r12_squared": [("unit", [(1.0, (0, 0, 2))])],
-        "inv_r12": [("unit", f12)],
-        "v_f1": [("unit", v_f1)],
-        "v_f12": [("unit", v_f12)],
-        "grad_f1": [("grad11", f1), ("grad22", f1)],
-        "grad_f12": [("grad11", f12), ("grad22", f12)],
-        "grad12": [("grad12", [(1.0, (0, 0, 0))])],
-        "v_squared": [("unit", v_sq)],
-        "lap1lap2": [("lap1lap2", [(1.0, (0, 0, 0))])],
-    })
+    ops.update(MOMENTS)
+    ops.update({name: [("unit", spec)] for name, spec in op.MULTIPLICATIVE.items()})
+    ops.update(op.DERIVATIVE)
     return ops
 
 
@@ -176,50 +155,6 @@ def _primitive_coefficients(basis, coefficients: np.ndarray) -> np.ndarray:
     if coefficients.ndim != 1 or coefficients.shape[0] != basis.size:
         raise InputError(f"coefficients must be a vector of length {basis.size}")
     return coefficients if basis.contraction is None else basis.contraction @ coefficients
-
-
-def _radial_moment(n: np.ndarray, lam: np.ndarray, angular: float = 1.0) -> np.ndarray:
-    """``angular · 4π ∫_0^∞ r^(n+2) e^{-λ r} dr = angular · 4π (n+2)! / λ^(n+3)``."""
-    return angular * radial_integral(n, lam)
-
-
-def _coalescence(basis, d: np.ndarray) -> dict[str, float]:
-    """Direct δ and cusp numerators ``d^T M d`` (not normalized, factor-2 convention)."""
-    kind = basis_kind(basis)
-    P, E = basis.powers, basis.exponents
-    sign = float(basis.sign)
-    out = {"delta_r1": 0.0, "delta_r2": 0.0, "delta_r12": 0.0, "cusp_r1": 0.0, "cusp_r2": 0.0,
-           "cusp_r12": 0.0}
-    for exchanged in (False, True):
-        kp, ke = (P[:, [1, 0, 2]], E[:, [1, 0, 2]]) if exchanged else (P, E)
-        weight = sign if exchanged else 1.0
-        bp, be = P[:, None, :], E[:, None, :]
-        tp, te = bp + kp[None], be + ke[None]
-        # (which, vanishing index, remaining powers, remaining exponents)
-        cases = {"r1": (0, (1, 2)), "r2": (1, (0, 2)), "r12": (2, (0, 1))}
-        for name, (index, rest) in cases.items():
-            if kind == "P":
-                # bra z1 vanishes at r1 = 0; the cross ket z2 vanishes at r2 = 0;
-                # z1 z1 (same) and z1 z2 (cross, at r1 = r2) average to r²/3 where nonzero
-                if name == "r1" or (name == "r2" and exchanged):
-                    continue
-                angular, extra = 1.0 / 3.0, 2
-            else:
-                angular, extra = 1.0, 0
-            mask = (bp[..., index] == 0) & (kp[None, :, index] == 0)
-            n = (tp[..., rest[0]] + tp[..., rest[1]] + extra).astype(float)
-            lam = te[..., rest[0]] + te[..., rest[1]]
-            value = np.where(mask, _radial_moment(n, np.where(mask, lam, 1.0), angular), 0.0)
-            out[f"delta_{name}"] += weight * float(d @ value @ d)
-            # spherically averaged d/dr of the ket at the coalescence point (for P kets the
-            # derivative of the z factor averages to zero there)
-            ket_i = kp[None, :, index]
-            slope = np.where(ket_i == 0, -ke[None, :, index], np.where(ket_i == 1, 1.0, 0.0))
-            bra_ok = bp[..., index] == 0
-            mom = _radial_moment(n, np.where(bra_ok, lam, 1.0), angular)
-            value = np.where(bra_ok & (ket_i <= 1), slope * mom, 0.0)
-            out[f"cusp_{name}"] += weight * float(d @ value @ d)
-    return out
 
 
 def _refinable(basis, repulsion: float) -> bool:
@@ -310,7 +245,7 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
     try:
         mats = operator_matrices(basis, ops)
     except InputError:
-        ops.pop("lap1lap2")
+        ops.pop("p1sq_p2sq")
         mats = operator_matrices(basis, ops)
         p4_ok = False
         notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
@@ -323,23 +258,18 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
     V = -Z * v["nuclear"] + repulsion * v["repulsion"]
     E = T + V
     d = _primitive_coefficients(basis, c)
-    co = {k: x / norm for k, x in _coalescence(basis, d).items()}
-    delta_r1 = 0.5 * (co["delta_r1"] + co["delta_r2"])
-    delta_r12 = co["delta_r12"]
-    delta_r1_reg = (4.0 * (E * v["inv_r1"] - v["v_f1"]) - 2.0 * v["grad_f1"]) / FOUR_PI
-    delta_r12_reg = (2.0 * (E * v["inv_r12"] - v["v_f12"]) - v["grad_f12"]) / FOUR_PI
-    cusp_nucleus = 0.5 * (co["cusp_r1"] + co["cusp_r2"]) / delta_r1 if delta_r1 > 0 else float("nan")
+    co = {k: float(d @ m @ d) / norm for k, m in op.coalescence_matrices(basis).items()}
+    delta_r1, delta_r12 = co["delta_r1"], co["delta_r12"]
+    delta_r1_reg = op.delta_r1_regularized(E, v, Z, repulsion)
+    delta_r12_reg = op.delta_r12_regularized(E, v, Z, repulsion)
+    cusp_nucleus = co["cusp_r1"] / delta_r1 if delta_r1 > 0 else float("nan")
     if basis.sign > 0 and delta_r12 > 0:
         cusp_electron = co["cusp_r12"] / delta_r12
     else:
         cusp_electron = float("nan")
         notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
                      "r12 = 0, so ⟨δ³(r12)⟩ = 0")
-    if p4_ok:
-        e_minus_v_sq = E * E - 2.0 * E * V + v["v_squared"]
-        p1_fourth = 2.0 * e_minus_v_sq - v["lap1lap2"]
-    else:
-        p1_fourth = None
+    p1_fourth = op.p1_fourth(E, v, Z, repulsion) if p4_ok else None
     if refine is None:
         refine = isinstance(result_or_wavefunction, EnergyResult) and _refinable(basis, repulsion)
     virial_ratio = -V / T
@@ -362,6 +292,6 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
         inv_r1_squared=v["inv_r1_squared"], r12=v["r12"], r12_squared=v["r12_squared"],
         inv_r12=v["inv_r12"], delta_r1=delta_r1, delta_r12=delta_r12,
         delta_r1_regularized=delta_r1_reg, delta_r12_regularized=delta_r12_reg,
-        grad1_dot_grad2=-v["grad12"], p1_fourth=p1_fourth, virial_ratio=virial_ratio,
+        grad1_dot_grad2=-v["p1_dot_p2"], p1_fourth=p1_fourth, virial_ratio=virial_ratio,
         cusp_nucleus=cusp_nucleus, cusp_electron=cusp_electron, normalization=norm,
         notes=tuple(notes))

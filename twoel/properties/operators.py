@@ -1,43 +1,58 @@
-r"""Expectation values of the operators behind the finite-mass, α² and α³ corrections.
+r"""The one definition of ``δ³(r1)``, ``δ³(r12)`` and ``p⁴`` (direct and regularized), and the
+operator values behind the finite-mass, α² and α³ corrections.
 
-All values are for one normalized, exchange-(anti)symmetric S-state wavefunction
-``ψ = Σ c_n φ_n`` in a :class:`twoel.basis.correlated.CorrelatedBasis` (Hartree atomic units), and are
-*per electron* where an operator belongs to one electron (``⟨δ³(r1)⟩``, ``⟨1/r1²⟩``, ...).
+Convention (every caller, :mod:`twoel.properties.expectation` and :mod:`twoel.corrections`)
+    Hartree atomic units; values *per electron* for one-electron operators:
+    ``⟨δ³(r1)⟩ = ½⟨δ³(r1) + δ³(r2)⟩`` (bohr⁻³), ``⟨p1⁴⟩ = ½⟨p1⁴ + p2⁴⟩`` (bohr⁻⁴); the pair
+    operator ``⟨δ³(r12)⟩`` (bohr⁻³) as it is.  Matrices are the primitive-pair matrices
+    ``⟨χ_p|O|(1 ± P12)χ_q⟩`` of :mod:`twoel.integrals.pairs` (the factor 2 of the exchange is
+    the same in the overlap, so it cancels in ``c^T O c / c^T S c``).  The Hamiltonian is
+    ``H = T + V``, ``V = -Z/r1 - Z/r2 + λ/r12`` (``λ = 1`` for the atom; ``λ = 0`` is the
+    hydrogenic model whose exact eigenfunctions check the formulas).
 
-Two forms are kept for the Dirac deltas:
+Direct forms
+    ``⟨δ³(r1)⟩ = ∫|Ψ(0, r2)|² d³r2 / ⟨Ψ|Ψ⟩`` and ``⟨δ³(r12)⟩ = ∫|Ψ(r, r)|² d³r / ⟨Ψ|Ψ⟩``,
+    closed forms per primitive pair (:func:`coalescence_matrices`; one radial integral of
+    :func:`twoel.integrals.closed_forms.radial_integral`).  They converge slowly: the basis
+    must reproduce the cusps.
 
-``direct``
-    ``⟨δ³(r1)⟩ = ∫|ψ(0, r2)|² d³r2`` and ``⟨δ³(r12)⟩ = ∫|ψ(r, r)|² d³r`` (closed forms per
-    primitive pair); they converge slowly because the basis must reproduce the cusps.
-``regularized``
-    the global-operator forms (R. J. Drake, Nucl. Instrum. Methods B 31, 7 (1988); J. Hiller,
-    J. Sucher, G. Feinberg, Phys. Rev. A 18, 2399 (1978)), derived from
-    ``∇²(1/r) = -4π δ³(r)`` and the Schrödinger equation:
+Regularized (global-operator) forms, R. J. Drachman, J. Phys. B 14, 2733 (1981)
+    From ``∇²(1/r) = -4π δ³(r)``, two integrations by parts and ``(∇1² + ∇2²)Ψ = 2(V - E)Ψ``:
 
     .. math::
 
-        ⟨δ(r_1)⟩ = \frac{1}{\pi}⟨\frac{E-V}{r_1}⟩ - \frac{1}{2\pi}
-                   ⟨\frac{|∇_1ψ|^2 + |∇_2ψ|^2}{r_1}⟩,\qquad
-        ⟨δ(r_{12})⟩ = \frac{1}{2\pi}⟨\frac{E-V}{r_{12}}⟩ - \frac{1}{4\pi}
-                   ⟨\frac{|∇_1ψ|^2 + |∇_2ψ|^2}{r_{12}}⟩
+        \langle\delta^3(r_1)\rangle = \frac{1}{\pi}\langle (E - V) f\rangle
+            - \frac{1}{2\pi}\langle f\,(|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,
+            \quad f = \tfrac12(1/r_1 + 1/r_2),
 
-    (exact for an eigenfunction; the error is second order in the wavefunction error).
+        \langle\delta^3(r_{12})\rangle = \frac{1}{2\pi}\langle (E - V)/r_{12}\rangle
+            - \frac{1}{4\pi}\langle r_{12}^{-1}(|\nabla_1\Psi|^2 + |\nabla_2\Psi|^2)\rangle,
 
-``⟨p1⁴ + p2⁴⟩`` uses ``4⟨(E - V)²⟩ - 2⟨p1² p2²⟩`` (K. Pachucki, Phys. Rev. A 71, 012503
-(2005)), free of the slowly converging ``|∇1²ψ|²``.
+    with ``E`` the energy of the state; exact for an eigenfunction, error second order in the
+    wave-function error (:func:`delta_r1_regularized`, :func:`delta_r12_regularized`).
+
+``⟨p1⁴⟩``
+    From ``(p1² + p2²)Ψ = 2(E - V)Ψ`` (exact identity): ``⟨p1⁴⟩ = 2⟨(E - V)²⟩ - ⟨p1² p2²⟩``
+    with ``⟨p1² p2²⟩ = ∫(∇1²Ψ)(∇2²Ψ)``, free of the δ-like ``|∇1²Ψ|²`` (:func:`p1_fourth`).
+
+The values these formulas need are the expectation values of :data:`MULTIPLICATIVE` and
+:data:`DERIVATIVE` (by the pair evaluator), named as in :class:`OperatorValues`.
 """
 
 from __future__ import annotations
 
-from dataclasses import asdict, dataclass
+import math
+from dataclasses import dataclass, fields
 from math import pi
+from typing import ClassVar
 
 import numpy as np
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.closed_forms import radial_integral
-from twoel.integrals.pairs import UNIT, contract, operator_matrices
+from twoel.integrals.pairs import UNIT, basis_kind, contract, operator_matrices
+from twoel.results import Result, _plain
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
 MULTIPLICATIVE = {
@@ -60,58 +75,160 @@ DERIVATIVE = {
     "gradsq_over_r12": [(g, MULTIPLICATIVE["inv_r12"]) for g in ("grad11", "grad22")],
 }
 
-
-def _as_basis(wavefunction):
-    basis = getattr(wavefunction, "basis", None)
-    coefficients = getattr(wavefunction, "coefficients", None)
-    if not isinstance(basis, CorrelatedBasis) or coefficients is None:
-        raise UnsupportedError("these operator integrals need an S-state correlated basis "
-                               "(twoel.basis.correlated.CorrelatedBasis) wavefunction")
-    return basis, np.asarray(coefficients, dtype=float)
+#: the values the regularized δ and ⟨p1⁴⟩ need besides ``E``, ``⟨1/r1⟩`` and ``⟨1/r12⟩``
+REGULARIZATION = ("inv_r1_squared", "inv_r1_r2", "inv_r1_r12", "inv_r12_squared",
+                  "gradsq_over_r1", "gradsq_over_r12")
 
 
-def _primitive_weights(basis: CorrelatedBasis, coefficients: np.ndarray) -> np.ndarray:
-    return coefficients if basis.contraction is None else basis.contraction @ coefficients
+def delta_r1_regularized(E: float, v, Z: float, repulsion: float = 1.0) -> float:
+    """Drachman's ``⟨δ³(r1)⟩`` per electron (bohr⁻³) from the values ``v`` (see the module)."""
+    e_minus_v_r1 = E * v["inv_r1"] + Z * v["inv_r1_squared"] + Z * v["inv_r1_r2"] - repulsion * v["inv_r1_r12"]
+    return e_minus_v_r1 / pi - v["gradsq_over_r1"] / (2 * pi)
 
 
-def _delta_pairs(basis: CorrelatedBasis, which: str) -> np.ndarray:
-    """Primitive matrix ``⟨χ_p|δ|(1 ± P12)χ_q⟩`` of ``½(δ(r1)+δ(r2))`` or ``δ(r12)`` (closed form)."""
-    P = basis.n_primitives
-    out = np.zeros((P, P))
-    bp, be = basis.powers, basis.exponents
-    for exchanged, weight in ((False, 1.0), (True, float(basis.sign))):
-        kp = bp[:, [1, 0, 2]] if exchanged else bp
-        ke = be[:, [1, 0, 2]] if exchanged else be
-        tp = bp[:, None, :] + kp[None, :, :]
-        te = be[:, None, :] + ke[None, :, :]
-        if which == "r12":
-            n = tp[..., 0] + tp[..., 1]
-            rate = te[..., 0] + te[..., 1]
-            mask = tp[..., 2] == 0
-            vals = np.zeros((P, P))
-            nn = n[mask]
-            vals[mask] = radial_integral(nn, rate[mask])
-            out += weight * vals
-        else:
-            # δ(r1): r1 = 0, r12 = r2;  δ(r2): r2 = 0, r12 = r1
-            for zero, other in ((0, 1), (1, 0)):
-                mask = tp[..., zero] == 0
-                n = tp[..., other] + tp[..., 2]
-                rate = te[..., other] + te[..., 2]
-                vals = np.zeros((P, P))
-                nn = n[mask]
-                vals[mask] = radial_integral(nn, rate[mask])
-                out += 0.5 * weight * vals
+def delta_r12_regularized(E: float, v, Z: float, repulsion: float = 1.0) -> float:
+    """Drachman's ``⟨δ³(r12)⟩`` (bohr⁻³) from the values ``v`` (see the module)."""
+    e_minus_v_r12 = E * v["inv_r12"] + 2 * Z * v["inv_r1_r12"] - repulsion * v["inv_r12_squared"]
+    return e_minus_v_r12 / (2 * pi) - v["gradsq_over_r12"] / (4 * pi)
+
+
+def p1_fourth(E: float, v, Z: float, repulsion: float = 1.0) -> float:
+    """``⟨p1⁴⟩ = 2⟨(E - V)²⟩ - ⟨p1² p2²⟩`` per electron (bohr⁻⁴) from the values ``v``."""
+    potential = -2 * Z * v["inv_r1"] + repulsion * v["inv_r12"]
+    v_squared = (Z * Z * (2 * v["inv_r1_squared"] + 2 * v["inv_r1_r2"])
+                 + repulsion * repulsion * v["inv_r12_squared"] - 4 * Z * repulsion * v["inv_r1_r12"])
+    e_minus_v_sq = E * E - 2 * E * potential + v_squared
+    return 2 * e_minus_v_sq - v["p1sq_p2sq"]
+
+
+def hydrogenic_delta_1s(Z: float, reduced_mass: float = 1.0) -> float:
+    """``⟨δ³(r)⟩ = Z³/π (μ/m)³`` of the hydrogen-like 1s state (bohr⁻³; exact closed form)."""
+    return Z**3 / math.pi * reduced_mass**3
+
+
+#: (vanishing coordinate, the two others) of δ(r1), δ(r2), δ(r12)
+_POINTS = {"r1": (0, (1, 2)), "r2": (1, (0, 2)), "r12": (2, (0, 1))}
+
+
+def _radial(n: np.ndarray, lam: np.ndarray) -> np.ndarray:
+    """:func:`radial_integral` of integer powers ``n``, one call per distinct power."""
+    out = np.empty(lam.shape)
+    for k in np.unique(n):
+        where = n == k
+        out[where] = radial_integral(int(k), lam[where])
     return out
 
 
-@dataclass(frozen=True)
-class OperatorValues:
-    """Expectation values (Eh, bohr; per electron for one-electron operators)."""
+def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
+    """Primitive matrices of the direct δ and of the cusp numerators, S or P basis.
 
-    energy: float
+    Returns ``"delta_r1"`` (``½(δ³(r1) + δ³(r2))``), ``"delta_r12"``, ``"cusp_r1"``
+    (``½`` the sum of ``δ³(r_i) ∂/∂r_i``) and ``"cusp_r12"`` (``δ³(r12) ∂/∂r12``), each
+    ``⟨χ_p|O|(1 ± P12)χ_q⟩`` of shape (P, P) (the derivative acts on the ket and is spherically
+    averaged; for P kets the derivative of the ``z`` factor averages to zero at the point).
+    At ``r_i = 0`` the remaining integral is one radial closed form in the other two
+    coordinates, which coincide there.  ``cusps=False`` leaves out the cusp numerators.
+    """
+    kind = basis_kind(basis)
+    P, E = basis.powers, basis.exponents
+    n_p = P.shape[0]
+    names = ("delta_r1", "delta_r12") + (("cusp_r1", "cusp_r12") if cusps else ())
+    out = {name: np.zeros((n_p, n_p)) for name in names}
+    bp, be = P[:, None, :], E[:, None, :]
+    for exchanged, weight in ((False, 1.0), (True, float(basis.sign))):
+        kp, ke = (P[:, [1, 0, 2]], E[:, [1, 0, 2]]) if exchanged else (P, E)
+        tp, te = bp + kp[None], be + ke[None]
+        for name, (index, rest) in _POINTS.items():
+            if kind == "P":
+                # bra z1 vanishes at r1 = 0; the cross ket z2 vanishes at r2 = 0;
+                # z1 z1 (same) and z1 z2 (cross, at r1 = r2) average to r²/3 where nonzero
+                if name == "r1" or (name == "r2" and exchanged):
+                    continue
+                angular, extra = 1.0 / 3.0, 2
+            else:
+                angular, extra = 1.0, 0
+            share = 1.0 if name == "r12" else 0.5
+            target = "r12" if name == "r12" else "r1"
+            n = tp[..., rest[0]] + tp[..., rest[1]] + extra
+            lam = te[..., rest[0]] + te[..., rest[1]]
+            mask = tp[..., index] == 0
+            vals = np.zeros((n_p, n_p))
+            vals[mask] = angular * _radial(n[mask], lam[mask])
+            out[f"delta_{target}"] += share * weight * vals
+            if not cusps:
+                continue
+            ket_i = np.broadcast_to(kp[None, :, index], mask.shape)
+            slope = np.where(ket_i == 0, -np.broadcast_to(ke[None, :, index], mask.shape),
+                             np.where(ket_i == 1, 1.0, 0.0))
+            ok = (np.broadcast_to(bp[..., index], mask.shape) == 0) & (ket_i <= 1)
+            vals = np.zeros((n_p, n_p))
+            vals[ok] = slope[ok] * (angular * _radial(n[ok], lam[ok]))
+            out[f"cusp_{target}"] += share * weight * vals
+    return out
+
+
+class AliasedResult(Result):
+    """A :class:`twoel.results.Result` whose :attr:`ALIASES` (old name -> current name) also
+    work as attributes, so that renamed fields keep their old public names; the properties
+    named in :attr:`DERIVED` (e.g. totals) are added to ``to_dict()``."""
+
+    #: properties added to ``to_dict()`` after the fields
+    DERIVED: ClassVar[tuple[str, ...]] = ()
+
+    def to_dict(self) -> dict:
+        out = {f.name: _plain(getattr(self, f.name)) for f in fields(self) if f.compare}
+        out.update({name: getattr(self, name) for name in self.DERIVED})
+        return self._with_aliases(out)
+
+    def __getattr__(self, name):
+        target = type(self).ALIASES.get(name)
+        if target is None:
+            raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
+        return getattr(self, target)
+
+
+@dataclass(frozen=True, repr=False)
+class OperatorValues(AliasedResult):
+    """Expectation values of one normalized S state (per electron for one-electron operators).
+
+    Attributes
+    ----------
+    energy_hartree : float
+        The energy ``E`` used in the regularized forms (Eh).
+    kinetic_hartree : float
+        ``⟨T⟩`` (Eh).
+    inv_r1, inv_r12, inv_r1_squared, inv_r1_r2, inv_r1_r12, inv_r12_squared : float
+        ``⟨1/r1⟩``, ``⟨1/r12⟩`` (bohr⁻¹), ``⟨1/r1²⟩``, ``⟨1/(r1 r2)⟩``, ``⟨1/(r1 r12)⟩``,
+        ``⟨1/r12²⟩`` (bohr⁻²).
+    p1_dot_p2 : float
+        ``⟨p1·p2⟩ = -⟨∇1·∇2⟩`` (bohr⁻²).
+    p1sq_p2sq : float
+        ``⟨p1² p2²⟩`` (bohr⁻⁴).
+    delta_r1_direct, delta_r12_direct, delta_r1_regularized, delta_r12_regularized : float
+        ``⟨δ³(r1)⟩`` (per electron) and ``⟨δ³(r12)⟩`` (bohr⁻³), direct and Drachman forms.
+    p1_fourth : float
+        ``⟨p1⁴⟩`` per electron (bohr⁻⁴).
+    p4_sum : float
+        ``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴), the Breit–Pauli mass-velocity operator (property).
+
+    Operator values keep the operator's name; ``units`` in ``to_dict()`` gives each unit.  Old
+    names ``energy`` and ``kinetic`` stay as attributes and ``to_dict()`` keys.
+    """
+
+    #: older names (they stay in ``to_dict()``)
+    ALIASES: ClassVar[dict] = {"energy": "energy_hartree", "kinetic": "kinetic_hartree"}
+    SUMMARY: ClassVar[tuple] = ("energy_hartree", "delta_r1_regularized", "delta_r12_regularized")
+    UNITS: ClassVar[dict] = {
+        "energy_hartree": "Eh", "kinetic_hartree": "Eh", "Z": "e", "inv_r1": "bohr^-1",
+        "inv_r12": "bohr^-1", "inv_r1_squared": "bohr^-2", "inv_r1_r2": "bohr^-2",
+        "inv_r1_r12": "bohr^-2", "inv_r12_squared": "bohr^-2", "p1_dot_p2": "bohr^-2",
+        "p1sq_p2sq": "bohr^-4", "delta_r1_direct": "bohr^-3", "delta_r12_direct": "bohr^-3",
+        "delta_r1_regularized": "bohr^-3", "delta_r12_regularized": "bohr^-3",
+        "p1_fourth": "bohr^-4", "p4_sum": "bohr^-4", "n_functions": "1"}
+
+    energy_hartree: float
     Z: float
-    kinetic: float
+    kinetic_hartree: float
     inv_r1: float
     inv_r12: float
     inv_r1_squared: float
@@ -124,15 +241,31 @@ class OperatorValues:
     delta_r12_direct: float
     delta_r1_regularized: float
     delta_r12_regularized: float
-    p4_sum: float
+    p1_fourth: float
     n_functions: int
 
+    @property
+    def p4_sum(self) -> float:
+        """``⟨p1⁴ + p2⁴⟩ = 2⟨p1⁴⟩`` (bohr⁻⁴)."""
+        return 2 * self.p1_fourth
+
+    DERIVED: ClassVar[tuple] = ("p4_sum",)
+
     def to_dict(self) -> dict:
-        return asdict(self)
+        return {**super().to_dict(), "units": dict(self.UNITS)}
+
+
+def _as_basis(wavefunction):
+    basis = getattr(wavefunction, "basis", None)
+    coefficients = getattr(wavefunction, "coefficients", None)
+    if not isinstance(basis, CorrelatedBasis) or coefficients is None:
+        raise UnsupportedError("these operator integrals need an S-state correlated basis "
+                               "(twoel.basis.correlated.CorrelatedBasis) wavefunction")
+    return basis, np.asarray(coefficients, dtype=float)
 
 
 def operator_values(wavefunction, Z: float, energy: float | None = None,
-                    matrices_out: dict | None = None) -> OperatorValues:
+                    matrices_out: dict | None = None, *, repulsion: float = 1.0) -> OperatorValues:
     """All expectation values used by the corrections, for one wavefunction.
 
     Parameters
@@ -146,6 +279,9 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
     matrices_out : dict, optional
         If given, receives the basis matrices (``"system"``: SystemMatrices, ``"p1_dot_p2"``)
         for reuse (e.g. by :func:`twoel.corrections.finite_mass.finite_mass_energy`).
+    repulsion : float
+        ``λ`` of the Hamiltonian ``T + V`` the regularized forms assume (1 for the atom; 0 for
+        the hydrogenic model, see the module docstring).
     """
     basis, c = _as_basis(wavefunction)
     m = build_matrices(basis)
@@ -157,34 +293,24 @@ def operator_values(wavefunction, Z: float, energy: float | None = None,
         return float(c @ matrix @ c) / norm
 
     kinetic = ev(m.kinetic)
-    inv_r1 = 0.5 * ev(m.nuclear)
-    inv_r12 = ev(m.repulsion)
+    values = {"inv_r1": 0.5 * ev(m.nuclear), "inv_r12": ev(m.repulsion)}
     if energy is None:
-        energy = kinetic - 2 * Z * inv_r1 + inv_r12
+        energy = kinetic - 2 * Z * values["inv_r1"] + repulsion * values["inv_r12"]
     specs = {name: spec for name, spec in MULTIPLICATIVE.items() if name not in ("inv_r1", "inv_r12")}
     specs.update(DERIVATIVE)
     mats = operator_matrices(basis, specs)
-    values = {name: ev(matrix) for name, matrix in mats.items()}
+    values.update({name: ev(matrix) for name, matrix in mats.items()})
     if matrices_out is not None:
         matrices_out["system"] = m
         matrices_out["p1_dot_p2"] = mats["p1_dot_p2"]
-    d1 = ev(contract(_delta_pairs(basis, "r1"), basis.contraction))
-    d12 = ev(contract(_delta_pairs(basis, "r12"), basis.contraction))
-    E = energy
-    # ⟨(E - V)/r1⟩ with V = -Z/r1 - Z/r2 + 1/r12 (per electron, symmetric forms)
-    e_minus_v_r1 = E * inv_r1 + Z * values["inv_r1_squared"] + Z * values["inv_r1_r2"] - values["inv_r1_r12"]
-    d1_reg = e_minus_v_r1 / pi - values["gradsq_over_r1"] / (2 * pi)
-    e_minus_v_r12 = E * inv_r12 + 2 * Z * values["inv_r1_r12"] - values["inv_r12_squared"]
-    d12_reg = e_minus_v_r12 / (2 * pi) - values["gradsq_over_r12"] / (4 * pi)
-    potential = -2 * Z * inv_r1 + inv_r12
-    v_squared = (Z * Z * (2 * values["inv_r1_squared"] + 2 * values["inv_r1_r2"])
-                 + values["inv_r12_squared"] - 4 * Z * values["inv_r1_r12"])
-    e_minus_v_sq = E * E - 2 * E * potential + v_squared
-    p4 = 4 * e_minus_v_sq - 2 * values["p1sq_p2sq"]
+    coalescence = coalescence_matrices(basis, cusps=False)
+    E = float(energy)
     return OperatorValues(
-        energy=float(E), Z=float(Z), kinetic=kinetic, inv_r1=inv_r1, inv_r12=inv_r12,
-        inv_r1_squared=values["inv_r1_squared"], inv_r1_r2=values["inv_r1_r2"],
-        inv_r1_r12=values["inv_r1_r12"], inv_r12_squared=values["inv_r12_squared"],
-        p1_dot_p2=values["p1_dot_p2"], p1sq_p2sq=values["p1sq_p2sq"],
-        delta_r1_direct=d1, delta_r12_direct=d12, delta_r1_regularized=d1_reg,
-        delta_r12_regularized=d12_reg, p4_sum=p4, n_functions=basis.size)
+        energy_hartree=E, Z=float(Z), kinetic_hartree=kinetic,
+        **{name: values[name] for name in ("inv_r1", "inv_r12", "inv_r1_squared", "inv_r1_r2",
+                                           "inv_r1_r12", "inv_r12_squared", "p1_dot_p2", "p1sq_p2sq")},
+        delta_r1_direct=ev(contract(coalescence["delta_r1"], basis.contraction)),
+        delta_r12_direct=ev(contract(coalescence["delta_r12"], basis.contraction)),
+        delta_r1_regularized=delta_r1_regularized(E, values, Z, repulsion),
+        delta_r12_regularized=delta_r12_regularized(E, values, Z, repulsion),
+        p1_fourth=p1_fourth(E, values, Z, repulsion), n_functions=basis.size)
