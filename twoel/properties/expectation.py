@@ -39,7 +39,7 @@ from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.integrals.pairs import basis_kind, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
-from twoel.properties import operators as op
+import twoel.properties.operators as op
 from twoel.results import EnergyResult, Result, Wavefunction
 
 
