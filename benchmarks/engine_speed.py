@@ -55,11 +55,11 @@ import json, sys, time, warnings
 warnings.simplefilter("ignore")
 import twoel
 {warmup}
-started = time.perf_counter()
+started, cpu = time.perf_counter(), time.process_time()
 result = {call}
-elapsed = time.perf_counter() - started
+elapsed, cpu = time.perf_counter() - started, time.process_time() - cpu
 text = result.energy_hartree_text or repr(result.energy_hartree)
-print(json.dumps({{"seconds": elapsed, "energy": text, "module": twoel.__file__}}))
+print(json.dumps({{"seconds": elapsed, "cpu_seconds": cpu, "energy": text, "module": twoel.__file__}}))
 """
 
 
@@ -98,6 +98,7 @@ def main(argv: list[str] | None = None) -> int:
                                   check=True, capture_output=True, text=True).stdout.strip()
             print(f"before: {args.before} ({rev})   after: working tree of {here}   "
                   f"OPENBLAS_NUM_THREADS={os.environ.get('OPENBLAS_NUM_THREADS', 'unset')}")
+            print("seconds of CPU time of the call (robust to other load with OPENBLAS_NUM_THREADS=1)")
             print(f"{'case':30s} {'before s':>9s} {'after s':>9s} {'after/before':>12s}  same energy text")
             for name in names:
                 times = {"before": [], "after": []}
@@ -105,7 +106,7 @@ def main(argv: list[str] | None = None) -> int:
                 for _ in range(args.repeats):
                     for label, tree in (("before", before), ("after", ROOT)):
                         record = time_case(tree, name)
-                        times[label].append(record["seconds"])
+                        times[label].append(record["cpu_seconds"])
                         texts[label] = record["energy"]
                 t0, t1 = statistics.median(times["before"]), statistics.median(times["after"])
                 same = "yes" if texts["before"] == texts["after"] else (
