@@ -12,7 +12,7 @@ made) and a short readable ``repr``.  One meaning per field name holds across al
 ``*_cm1``, ``*_ev``, ``*_mhz``, ``*_nm``   the same quantity in that laboratory unit
 
 A result that renames a misleading field keeps the old name as an alias in ``ALIASES`` (old name
--> new name), so both appear in ``to_dict()``.
+-> new name): both appear in ``to_dict()``, and the old name still works as an attribute.
 
 :class:`EnergyResult` is what :func:`twoel.solve` returns: the energy (Eh), whether the state is
 bound, the ionization energy, diagnostics of the basis and the optimizer, the published
@@ -61,11 +61,21 @@ class Result:
     ALIASES: ClassVar[dict[str, str]] = {}
     #: fields shown by ``repr`` (default: the first three)
     SUMMARY: ClassVar[tuple[str, ...]] = ()
+    #: properties (e.g. totals) added to ``to_dict()`` after the fields
+    DERIVED: ClassVar[tuple[str, ...]] = ()
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary of the result."""
         out = {f.name: _plain(getattr(self, f.name)) for f in fields(self) if f.compare}
+        out.update({name: _plain(getattr(self, name)) for name in self.DERIVED})
         return self._with_aliases(out)
+
+    def __getattr__(self, name):
+        """Old field names of :attr:`ALIASES` keep working as attributes."""
+        target = type(self).ALIASES.get(name)
+        if target is None:
+            raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
+        return getattr(self, target)
 
     def _with_aliases(self, out: dict) -> dict:
         for old, new in self.ALIASES.items():

@@ -28,11 +28,12 @@ from twoel.solver.eigen import solve_generalized
 from twoel.errors import UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.pairs import operator_matrices
-from twoel.properties.operators import MASS_POLARIZATION, AliasedResult
+from twoel.properties.operators import MASS_POLARIZATION
+from twoel.results import Result
 
 
 @dataclass(frozen=True, repr=False)
-class FiniteMassEnergy(AliasedResult):
+class FiniteMassEnergy(Result):
     """Finite-mass energies of one state (Eh).
 
     Attributes

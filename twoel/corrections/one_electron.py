@@ -28,14 +28,15 @@ from typing import ClassVar
 
 from twoel import constants
 from twoel.corrections.qed import alpha4_radiative_factor, bethe_log_hydrogenic_1s, one_electron_qed_factor
-from twoel.properties.operators import AliasedResult, hydrogenic_delta_1s
+from twoel.properties.operators import hydrogenic_delta_1s
+from twoel.results import Result
 
 
 _PIECES = ("nonrelativistic_infinite_mass", "finite_mass", "relativistic", "qed_alpha3", "qed_alpha4")
 
 
 @dataclass(frozen=True, repr=False)
-class OneElectronIon(AliasedResult):
+class OneElectronIon(Result):
     """Energy pieces of the 1s ion (Eh).
 
     Attributes

@@ -35,7 +35,7 @@ from dataclasses import dataclass
 from typing import ClassVar
 
 from twoel import constants
-from twoel.properties.operators import AliasedResult
+from twoel.results import Result
 from twoel.reference import all_references
 from twoel.system import State
 
@@ -72,7 +72,7 @@ def bethe_log_hydrogenic_1s(Z: float) -> float:
 
 
 @dataclass(frozen=True, repr=False)
-class BetheLog(AliasedResult):
+class BetheLog(Result):
     """A Bethe logarithm ``ln(k0/R∞)`` (dimensionless) with its source.
 
     ``approximate`` is true for the hydrogenic-scaling approximation (no published value).
@@ -100,7 +100,7 @@ def bethe_logarithm(Z: float, state: str | State) -> BetheLog:
 
 
 @dataclass(frozen=True, repr=False)
-class QEDCorrection(AliasedResult):
+class QEDCorrection(Result):
     """α³ QED pieces of a two-electron state (Eh, finite-mass scaled).
 
     Attributes

@@ -35,7 +35,7 @@ from typing import ClassVar
 
 from twoel import constants
 from twoel.errors import UnsupportedError
-from twoel.properties.operators import AliasedResult
+from twoel.results import Result
 from twoel.system import State
 
 #: Zα above which the spectrum output cautions that first-order Breit–Pauli is inadequate.
@@ -50,7 +50,7 @@ _TERMS = ("mass_velocity", "darwin_one_electron", "darwin_two_electron", "spin_s
 
 
 @dataclass(frozen=True, repr=False)
-class BreitPauli(AliasedResult):
+class BreitPauli(Result):
     """α² corrections of an S state (Eh, already multiplied by α² and μ/m).
 
     Attributes

@@ -42,7 +42,7 @@ The values these formulas need are the expectation values of :data:`MULTIPLICATI
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, fields
+from dataclasses import dataclass
 from math import pi
 from typing import ClassVar
 
@@ -52,7 +52,7 @@ from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.closed_forms import radial_integral
 from twoel.integrals.pairs import UNIT, basis_kind, contract, operator_matrices
-from twoel.results import Result, _plain
+from twoel.results import Result
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
 MULTIPLICATIVE = {
@@ -167,28 +167,8 @@ def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
     return out
 
 
-class AliasedResult(Result):
-    """A :class:`twoel.results.Result` whose :attr:`ALIASES` (old name -> current name) also
-    work as attributes, so that renamed fields keep their old public names; the properties
-    named in :attr:`DERIVED` (e.g. totals) are added to ``to_dict()``."""
-
-    #: properties added to ``to_dict()`` after the fields
-    DERIVED: ClassVar[tuple[str, ...]] = ()
-
-    def to_dict(self) -> dict:
-        out = {f.name: _plain(getattr(self, f.name)) for f in fields(self) if f.compare}
-        out.update({name: getattr(self, name) for name in self.DERIVED})
-        return self._with_aliases(out)
-
-    def __getattr__(self, name):
-        target = type(self).ALIASES.get(name)
-        if target is None:
-            raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
-        return getattr(self, target)
-
-
 @dataclass(frozen=True, repr=False)
-class OperatorValues(AliasedResult):
+class OperatorValues(Result):
     """Expectation values of one normalized S state (per electron for one-electron operators).
 
     Attributes
