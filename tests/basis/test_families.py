@@ -52,7 +52,7 @@ def test_open_shell_binds_hydrogen_anion():
 
 
 def test_open_shell_helium():
-    # -2.875661331 (Eckart, Phys. Rev. 36, 878 (1930); digits reproduced in REFERENCE-VALUES)
+    # -2.875661331 (Eckart, Phys. Rev. 36, 878 (1930); digits from memory)
     r = twoel.solve(2, family="open-shell")
     assert r.energy_hartree == pytest.approx(-2.875661331, abs=1e-8)
 
