@@ -86,7 +86,8 @@ class FamilyHelp(str):
     family registry (which imports the numerical core) is not loaded while the parser is built.
     """
 
-    def __new__(cls, template: str = "trial-function family: {names} (default hylleraas)"):
+    def __new__(cls, template: str = "trial-function family: {names} (default: hylleraas for S "
+                                     "states, otherwise the first family that supports the state)"):
         text = super().__new__(cls, template)
         text.template = template
         return text
@@ -102,7 +103,7 @@ def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | Non
     group = parser.add_argument_group("basis")
     group.add_argument("--state", default="1^1S",
                        help="term symbol: 1^1S (default), 2^3S, '2 3S', 2³S ...")
-    group.add_argument("--family", default="hylleraas",
+    group.add_argument("--family", default=None,
                        help=FamilyHelp())
     group.add_argument("--size", type=positive_int, default=default_size,
                        help="the family's size parameter (ω for hylleraas); ignored by families without one")
@@ -121,6 +122,18 @@ def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | Non
                        help="hylleraas: powers of (r1, r2, r12) [default] or of (s, t, u)")
 
 
+def resolved_family(args: argparse.Namespace) -> str:
+    """The family named by ``--family``; without it hylleraas for S states (the documented
+    default) and otherwise the family that :func:`twoel.basis.family_for` picks for the state."""
+    if args.family is not None:
+        return args.family
+    from twoel.basis import family_for
+    from twoel.system import State
+
+    state = State.parse(args.state)
+    return "hylleraas" if state.L == 0 else family_for(state).name
+
+
 def basis_keywords(args: argparse.Namespace) -> dict:
     """Turn the parsed basis options into keyword arguments of :func:`twoel.solve`."""
     options = {}
@@ -130,7 +143,7 @@ def basis_keywords(args: argparse.Namespace) -> dict:
             options[name] = value
     return {
         "state": args.state,
-        "family": args.family,
+        "family": resolved_family(args),
         "size": args.size,
         "parameters": dict(args.param) if args.param else None,
         "optimize": args.optimize,

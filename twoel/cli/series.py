@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import add_basis_arguments, basis_keywords, positive_int
+from twoel.cli.common import add_basis_arguments, basis_keywords, positive_int, resolved_family
 
 NAME = "series"
 HELP = "energies, references and ionization energies over a range of Z, as a table"
@@ -56,6 +56,6 @@ def run(args: argparse.Namespace) -> int:
         columns = [c for c in DEFAULT_COLUMNS if c in frame.columns]
     else:
         columns = None
-    caption = f"{args.state} energies (Eh), family {args.family}, size {args.size}"
+    caption = f"{args.state} energies (Eh), family {resolved_family(args)}, size {args.size}"
     sys.stdout.write(render(frame, args.format, caption=caption, columns=columns))
     return 0
