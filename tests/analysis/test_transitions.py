@@ -95,10 +95,19 @@ def test_transition_cli_json(capsys):
     assert "nonrelativistic" in data["caution"]
 
 
-def test_transition_cli_text_has_caution(capsys):
+def test_transition_cli_text_gives_the_wavelength_and_its_caution(capsys):
+    """The printed vacuum wavelength is 1/ΔE of Drake's energies (CODATA hartree-inverse meter)
+    to the basis accuracy (~3e-7 relative at 100 terms), and the nonrelativistic caution is said."""
+    import re
+    import scipy.constants as sc
+
     assert main(["transition", "--Z", "2", "--from", "2^3S", "--to", "2^3P", "--size", "100"]) == 0
     out = capsys.readouterr().out
-    assert "vacuum wavelength" in out and "caution: nonrelativistic" in out
+    printed = float(re.search(r"vacuum wavelength: ([0-9.]+) nm", out).group(1))
+    per_metre = sc.physical_constants["hartree-inverse meter relationship"][0]
+    exact = 1e9 / ((HE["2^3P"] - HE["2^3S"]) * per_metre)
+    assert printed == pytest.approx(exact, abs=2e-3)
+    assert "caution: nonrelativistic" in out
 
 
 @pytest.mark.parametrize("argv, message", [
@@ -162,14 +171,3 @@ def test_excited_box_file_follows_the_shared_schema():
                 lo, hi = box[edge]
                 assert 0 <= lo <= hi
     assert {(2.0, "2^1S"), (2.0, "2^3S"), (2.0, "2^1P"), (2.0, "2^3P"), (3.0, "2^1S"), (3.0, "2^3S")} <= seen
-
-
-def test_quasi_random_sequence_is_exact_integer_arithmetic():
-    """frac(i(i+1)/2 · sqrt(2)) for i = 1..3 (exact closed form, computed with mpmath)."""
-    import mpmath
-
-    from twoel.basis.exponential import quasi_random  # the one sequence of all box bases
-
-    mpmath.mp.dps = 40
-    expected = [float(mpmath.frac(i * (i + 1) // 2 * mpmath.sqrt(2))) for i in (1, 2, 3)]
-    assert quasi_random(3, 2) == pytest.approx(expected, abs=1e-15)
