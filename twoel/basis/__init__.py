@@ -55,14 +55,16 @@ def get_family(name: str | TrialFamily) -> TrialFamily:
 
 
 def family_for(state: State) -> TrialFamily:
-    """The first registered family (in :data:`FAMILY_MODULES` order, after ``hylleraas``) whose
-    declaration covers ``state``: ``hylleraas`` for S states, ``exponential`` for P states."""
+    """The most capable registered family that covers ``state``, judged on what the families
+    declare: first one that states an error bar for the state, then the most precision paths,
+    then :data:`FAMILY_MODULES` order (``exponential`` for S and P states today)."""
     families = _registry()
-    order = ["hylleraas"] + [name for name in families if name != "hylleraas"]
-    for name in order:
-        if name in families and families[name].supports().covers(state):
-            return families[name]
-    raise UnsupportedError(f"no trial family represents {state.label}")
+    covering = [family for family in families.values() if family.supports().covers(state)]
+    if not covering:
+        raise UnsupportedError(f"no trial family represents {state.label}")
+    order = {name: k for k, name in enumerate(families)}
+    return min(covering, key=lambda f: (not f.gives_error_bar(state), -len(f.precision_paths(state)),
+                                        order[f.name]))
 
 
 __all__ = ["Basis", "Parameter", "Support", "TrialFamily", "FAMILY_MODULES", "family_for",

@@ -1,0 +1,90 @@
+"""Error bars against true errors: does the bar that twoel states cover the error, and how loosely?
+
+Usage::
+
+    OPENBLAS_NUM_THREADS=1 python3 benchmarks/error_bars.py [--quick] [--precision float64|extended|both]
+
+For He, H⁻ and Li⁺ 1¹S and He 2¹S, 2³S, 2¹P and 2³P, at four basis sizes each, the script solves
+with the default family of the state (through :func:`twoel.solve`) and prints the true error
+(against the published value of ``data/reference_energies.csv``, whose source the table names),
+the stated error bar, their ratio and the ``reliable`` flag.  A bar is honest when
+``1 <= bar / true error <= 30``, or when the result says ``reliable: false``; the last column
+says ``ok`` or ``NOT OK``.  States that get no bar in a precision say so.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+import time
+import warnings
+
+import mpmath
+
+import twoel
+from twoel.reference import lookup
+
+CASES = [  # (Z, state, sizes)
+    (2, "1^1S", (200, 400, 800, 1600)),
+    (1, "1^1S", (200, 400, 800, 1200)),
+    (3, "1^1S", (200, 400, 800, 1200)),
+    (2, "2^1S", (200, 400, 600, 800)),
+    (2, "2^3S", (200, 400, 600, 800)),
+    (2, "2^1P", (150, 300, 450, 600)),
+    (2, "2^3P", (150, 300, 450, 600)),
+]
+QUICK_SIZES = 2  # --quick: the two smallest sizes of each case
+LOWER, UPPER = 1.0, 30.0
+
+
+def row(Z, state, size, precision) -> dict:
+    reference = lookup(Z, state)
+    started = time.perf_counter()
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        try:
+            result = twoel.solve(Z, state, size=size, precision=precision)
+        except twoel.TwoelError as error:
+            return {"skip": str(error).splitlines()[0]}
+    seconds = time.perf_counter() - started
+    mpmath.mp.dps = 50
+    value = mpmath.mpf(result.energy_hartree_text or repr(result.energy_hartree))
+    true = float(value - mpmath.mpf(reference.value_text))
+    bar = result.error_bar_hartree
+    reliable = result.to_dict().get("error_bar", {}) or {}
+    reliable = reliable.get("reliable", True) if isinstance(reliable, dict) else True
+    ratio = bar / abs(true) if bar and true else None
+    honest = (bar is not None and bar >= abs(true) and (ratio is None or ratio <= UPPER)) or not reliable
+    return {"true": true, "bar": bar, "ratio": ratio, "reliable": reliable, "honest": honest,
+            "seconds": seconds, "source": reference.source.split(",")[0]}
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+    parser.add_argument("--quick", action="store_true", help="only the two smallest sizes per case")
+    parser.add_argument("--precision", choices=("float64", "extended", "both"), default="both")
+    args = parser.parse_args(argv)
+    precisions = ("float64", "extended") if args.precision == "both" else (args.precision,)
+    print(f"{'Z':>2} {'state':5} {'N':>5} {'precision':9} {'true error':>11} {'bar':>9} "
+          f"{'bar/true':>9} {'reliable':8} {'s':>6}  verdict")
+    bad = 0
+    for Z, state, sizes in CASES:
+        for size in (sizes[:QUICK_SIZES] if args.quick else sizes):
+            for precision in precisions:
+                r = row(Z, state, size, precision)
+                if "skip" in r:
+                    print(f"{Z:>2} {state:5} {size:>5} {precision:9} {'':>11} {'':>9} {'':>9} "
+                          f"{'':8} {'':>6}  no result: {r['skip']}")
+                    continue
+                bar = "none" if r["bar"] is None else f"{r['bar']:.1e}"
+                ratio = "" if r["ratio"] is None else f"{r['ratio']:.1f}"
+                verdict = "ok" if r["honest"] else "NOT OK"
+                bad += not r["honest"]
+                print(f"{Z:>2} {state:5} {size:>5} {precision:9} {r['true']:11.1e} {bar:>9} {ratio:>9} "
+                      f"{str(r['reliable']):8} {r['seconds']:6.1f}  {verdict}", flush=True)
+    print(f"references: data/reference_energies.csv (sources named there); {bad} rows not honest")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
