@@ -171,6 +171,7 @@ class EnergyResult(Result):
     elapsed_seconds: float = 0.0
     provenance: dict = field(default_factory=dict)
     wavefunction: Wavefunction | None = field(default=None, compare=False, repr=False)
+    reliable: bool | None = None
 
     @property
     def ionization_energy_hartree(self) -> float | None:
@@ -190,8 +191,23 @@ class EnergyResult(Result):
 
     @property
     def difference_hartree(self) -> float | None:
-        """``E - E_reference`` (Eh); positive for a variational upper bound."""
-        return None if self.reference is None else self.energy_hartree - self.reference.value
+        """``E - E_reference`` (Eh); positive for a variational upper bound.  Taken from the
+        decimal texts (the full refined value and the published digits), so it is not lost to
+        float64 rounding for large ``|E|``."""
+        if self.reference is None:
+            return None
+        from decimal import Decimal, localcontext
+
+        full = self.provenance.get("energy_full_text") if isinstance(self.provenance, dict) else None
+        with localcontext() as context:
+            context.prec = 60
+            return float(Decimal(full or repr(self.energy_hartree)) - Decimal(self.reference.value_text))
+
+    @property
+    def ionization_energy_error_bar_hartree(self) -> float | None:
+        """Uncertainty of :attr:`ionization_energy_hartree` (Eh): the energy's error bar (the
+        nonrelativistic one-electron threshold ``-Z²/2`` is exact)."""
+        return self.error_bar_hartree if self.bound else None
 
     @property
     def agreeing_digits(self) -> int | None:
@@ -212,6 +228,7 @@ class EnergyResult(Result):
             "energy_hartree": self.energy_hartree,
             "energy_hartree_text": self.energy_hartree_text,
             "error_bar_hartree": self.error_bar_hartree,
+            "reliable": self.reliable,
             "bound": self.bound,
             "status": self.status,
             "message": self.message,
@@ -221,6 +238,7 @@ class EnergyResult(Result):
             "ionization_energy_cm1": None if ie is None else hartree_to(ie, "cm-1"),
             "ionization_energy_kj_mol": None if ie is None else hartree_to(ie, "kj/mol"),
             "ionization_energy_mhz": None if ie is None else hartree_to(ie, "mhz"),
+            "ionization_energy_error_bar_hartree": self.ionization_energy_error_bar_hartree,
             "reference_energy_hartree": self.reference_energy_hartree,
             "reference_energy_text": None if self.reference is None else self.reference.value_text,
             "reference_source": None if self.reference is None else self.reference.source,

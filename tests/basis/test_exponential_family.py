@@ -96,14 +96,31 @@ def test_family_basis_contract():
 
 
 def test_family_declares_what_it_supports():
-    """The solver reads the declaration: S states refine and get an error bar, P states do not."""
+    """The solver reads the declaration: S states refine, P states stay in float64, and D
+    states are refused."""
     fam = get_family("exponential")
     s, p = State.parse("1^1S"), State.parse("2^1P")
-    assert fam.precision_paths(s) == ("float64", "mixed", "extended")
-    assert fam.precision_paths(p) == ("float64",)
-    assert fam.gives_error_bar(s) and not fam.gives_error_bar(p)
+    assert "extended" in fam.precision_paths(s) and "extended" not in fam.precision_paths(p)
     with pytest.raises(UnsupportedError):
         fam.check_state(State.parse("3^1D"))
+
+
+@pytest.mark.parametrize("state, exact", [
+    # Drake, Springer Handbook of Atomic, Molecular and Optical Physics (2006), ch. 11 (from memory)
+    ("2^3P", -2.133164190779283205), ("2^1P", -2.123843086498101359)])
+def test_float64_p_state_error_bar_covers_the_published_value(state, exact):
+    """A float64 P solve states a bar (nested bases plus the measured cost of the dropped
+    directions) that covers the true error without being absurdly loose."""
+    import warnings
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        r = twoel.solve(2, state, family="exponential", size=150)
+    error = r.energy_hartree - exact
+    assert 0 < error <= r.error_bar_hartree <= 30 * error
+    assert r.reliable is True
+    digits = r.energy_hartree_text.split(".")[1]
+    assert len(digits) <= 9  # no digits below the ~1e-8 bar
 
 
 def test_every_box_file_is_read(tmp_path, monkeypatch):

@@ -167,7 +167,7 @@ class ExponentialFamily(TrialFamily):
     #: ``--optimize`` tunes S boxes at the stored set's size (else 120), at most 400 (the float64
     #: energy it minimizes stops seeing the basis near 1e-10 Eh, and each evaluation is O(N³))
     support = Support(L_values=(0, 1), precision={0: ("float64", "mixed", "extended")},
-                      error_bar_L=(0,), sizes={0: 600, 1: 600}, tuning_size=120,
+                      error_bar_L=(0, 1), sizes={0: 600, 1: 600}, tuning_size=120,
                       tuning_max_size=400)
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:

@@ -28,7 +28,7 @@ from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_gene
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.solver.optimize import minimize_energy, virial_scale
-from twoel.solver.error_bar import nested_error_bar
+from twoel.solver.error_bar import float64_energy, nested_error_bar
 from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
                                  starting_condition_digits, truncate_text)
 from twoel.reference import lookup
@@ -104,7 +104,7 @@ def choose_family(state: State, family=None, size: int | None = None, ion: Ion |
 
     ``family`` given: that family, ``size`` as given (``None``: its default size).  ``family``
     ``None``: :data:`DEFAULT_FAMILY` with its default size when it can represent ``state``
-    (unchanged behaviour), else the first family whose declaration covers the state
+    (unchanged behaviour), else the most capable family whose declaration covers the state
     (:func:`twoel.basis.family_for`) with the size it gives for the state
     (:meth:`~twoel.basis.base.TrialFamily.size_for`), unless ``size`` is given.
     """
@@ -216,9 +216,10 @@ def _refine_step(plan: _Plan, solved: _Solved, record: dict | None, stage) -> tu
 
 def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | None:
     """Truncation error bar from nested smaller bases, where the family declares one."""
-    if solved.refined is None or not plan.fam.gives_error_bar(plan.state) \
-            or (error_bar is not None and not error_bar):
+    if not plan.fam.gives_error_bar(plan.state) or (error_bar is not None and not error_bar):
         return None
+    if solved.refined is None:
+        return _float64_error_bar(plan, solved, stage)
 
     def refined_energy(n: int):
         # the smaller bases only feed differences: the mixed refinement suffices unless its
@@ -231,6 +232,24 @@ def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | No
         return aux
 
     return nested_error_bar(refined_energy, plan.size, solved.refined)
+
+
+def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
+    """Error bar of a float64 solve: nested bases, each energy with the measured cost of its
+    dropped directions (:class:`twoel.solver.error_bar.Float64Energy`)."""
+    root, Z = plan.state.root, plan.ion.Z
+
+    def energy_at(n: int):
+        stage(f"error bar: smaller basis N = {n}")
+        _b, m, e = plan.evaluate(solved.values, n)
+        return float64_energy(m.hamiltonian(Z), m.overlap, root, plan.drop_threshold, e)
+
+    final = float64_energy(solved.matrices.hamiltonian(Z), solved.matrices.overlap, root,
+                           plan.drop_threshold, solved.eig)
+    bar = nested_error_bar(energy_at, plan.size, final)
+    bar["method"] += "; float64 energies, each with the rise of the energy when the drop threshold is raised 10x"
+    bar["float64_error_hartree"] = final.numerical_error_hartree
+    return bar
 
 
 def solve(Z, state: str | State = "1^1S", family: str | TrialFamily | None = None,
@@ -330,8 +349,8 @@ def _notes_and_warnings(plan: _Plan, solved: _Solved, record, kept_start, bar) -
         if origin not in (None, "stored") and not plan.do_optimize:
             notes.append(f"exponent boxes: {origin} (no optimized set stored for {plan.ion.label} "
                          f"{plan.state.label}); --optimize may improve the energy")
-        if bar is not None and not bar["reliable"]:
-            warn_list.append(f"error bar may be unreliable: {bar['note']}")
+    if bar is not None and not bar["reliable"]:
+        warn_list.append(f"error bar may be unreliable (reliable: false): {bar['note']}")
     return warn_list, notes
 
 
@@ -352,8 +371,11 @@ def _provenance(plan: _Plan, solved: _Solved, bar) -> dict:
         boxes = plan.fam.provenance(plan.ion, plan.state)
         if boxes is not None:
             provenance["boxes"] = boxes
-        if bar is not None:
-            provenance["error_bar"] = bar
+    elif bar is not None:
+        provenance["energy_full_text"] = repr(solved.energy)
+        provenance["numerical_error_hartree"] = bar.get("float64_error_hartree")
+    if bar is not None:
+        provenance["error_bar"] = bar
     return provenance
 
 
@@ -373,6 +395,9 @@ def _assemble(plan: _Plan, solved: _Solved, record, kept_start, bar, elapsed) ->
         error_value = None if bar is None else bar["error_bar_hartree"]
         energy_text = truncate_text(refined.text, refined.numerical_error_hartree
                                     if bar is None else error_value)
+    elif bar is not None:
+        error_value = bar["error_bar_hartree"]
+        energy_text = truncate_text(repr(energy_value), error_value)
     kinetic, potential = solved.kinetic, solved.potential
     return EnergyResult(
         Z=ion.Z, ion=ion.label, state=state.label, family=plan.fam.name, size=plan.size,
@@ -386,6 +411,7 @@ def _assemble(plan: _Plan, solved: _Solved, record, kept_start, bar, elapsed) ->
         reference=lookup(ion.Z, state) if not ion.is_model else None, optimizer=record,
         warnings=tuple(warn_list), notes=tuple(notes),
         energy_hartree_text=energy_text, error_bar_hartree=error_value,
+        reliable=None if bar is None else bool(bar["reliable"]),
         elapsed_seconds=elapsed, provenance=_provenance(plan, solved, bar),
         wavefunction=Wavefunction(
             solved.basis, eig.vectors[:, state.root].copy(),
