@@ -175,6 +175,148 @@ class SpectrumResult(Result):
         })
 
 
+def _element_and_s_state(Z, state) -> tuple[Ion, State]:
+    """The ion (a real element: the nuclear mass is needed) and the S state of the corrections."""
+    ion = Ion.parse(Z)
+    if ion.is_model:
+        raise InputError("corrections need a real element (integer Z) for the nuclear mass")
+    st = State.parse(state)
+    if st.L != 0:
+        raise UnsupportedError(f"{st.label}: the corrections are implemented for S states only; "
+                               "the 2^3P fine structure needs P-state wavefunctions")
+    return ion, st
+
+
+def _atom_wavefunction(Z: float, st: State, quality: str, wavefunction):
+    """The infinite-mass wavefunction: solved in the preset basis, or the given one.
+
+    Returns
+    -------
+    wavefunction, root, energy, basis_note
+        ``root`` and ``energy`` (Eh) are ``None`` for a given wavefunction.
+    """
+    if wavefunction is None:
+        basis = preset_basis(Z, st, quality)
+        from twoel.basis.correlated import build_matrices
+
+        m0 = build_matrices(basis)
+        eig = solve_generalized(m0.hamiltonian(Z), m0.overlap)
+        if st.root >= eig.values.shape[0]:
+            raise UnsupportedError(f"the preset basis has too few functions for {st.label}")
+        wavefunction = Wavefunction(basis, eig.vectors[:, st.root].copy())
+        root, energy = st.root, float(eig.values[st.root])
+        basis_note = f"preset two-scale Hylleraas basis ({quality}), {basis.size} functions"
+    else:
+        basis, root, energy = wavefunction.basis, None, None
+        basis_note = f"given wavefunction, {basis.size} functions"
+    if not isinstance(basis, CorrelatedBasis):
+        raise UnsupportedError("the corrections need a correlated S-state basis wavefunction")
+    return wavefunction, root, energy, basis_note
+
+
+@dataclass(frozen=True)
+class _AtomPieces:
+    """The two-electron side of :func:`compute_spectrum`: energy (Eh), operators and corrections."""
+
+    energy: float
+    values: object
+    quad: dict
+    fm: object
+    bp: object
+    qed: object
+
+    def record(self) -> dict:
+        """The ``atom`` record of :class:`SpectrumResult`."""
+        return {
+            "energy_infinite_mass_hartree": self.energy,
+            "finite_mass": self.fm.to_dict(),
+            "operators": self.values.to_dict(),
+            "quadrature": self.quad,
+            "breit_pauli_hartree": self.bp.to_dict(),
+            "qed_hartree": self.qed.to_dict(),
+        }
+
+
+def _atom_pieces(ion: Ion, st: State, wavefunction, energy, root, mass,
+                 quadrature_nodes: int) -> _AtomPieces:
+    """Operator values, finite-mass, Breit–Pauli and QED corrections of the bound atom state."""
+    Zf, mu, basis = ion.Z, mass.reduced_mass_me, wavefunction.basis
+    mats: dict = {}
+    values = operator_values(wavefunction, Zf, energy, matrices_out=mats)
+    energy = values.energy_hartree
+    if not energy < ion.threshold_hartree:
+        raise NotBoundError(f"{ion.label} {st.label}: energy {energy:.10f} Eh is not below the "
+                            f"threshold {ion.threshold_hartree:.10f} Eh in this basis")
+    if root is None:
+        m0 = mats["system"]
+        roots = solve_generalized(m0.hamiltonian(Zf), m0.overlap).values
+        root = int(np.argmin(np.abs(roots - energy)))
+    quad = quadrature_expectations(wavefunction, quadrature_nodes,
+                                   delta_r12=values.delta_r12_direct if st.is_singlet else 0.0)
+    fm = finite_mass_energy(basis, Zf, mass.nuclear_mass_me, root, energy, values.p1_dot_p2,
+                            system=mats["system"], p12_matrix=mats["p1_dot_p2"])
+    bp = breit_pauli_s(Zf, st, values, quad["orbit_orbit"], mu)
+    qed = qed_correction(Zf, st, values.delta_r1_regularized,
+                         values.delta_r12_regularized if st.is_singlet else 0.0,
+                         quad["araki_sucher"], mu)
+    return _AtomPieces(energy, values, quad, fm, bp, qed)
+
+
+def _contributions(thr, atom: _AtomPieces) -> dict:
+    """Each contribution to ``I``: the ion's correction minus the atom's (Eh)."""
+    return {
+        "nonrelativistic": thr.nonrelativistic_infinite_mass_hartree - atom.energy,
+        "finite_mass": thr.finite_mass_hartree - (atom.fm.energy_exact_hartree - atom.energy),
+        "alpha2": thr.relativistic_hartree - atom.bp.total_hartree,
+        "alpha3": thr.qed_alpha3_hartree - atom.qed.alpha3_hartree,
+        "alpha4_radiative": thr.qed_alpha4_hartree - atom.qed.alpha4_radiative_hartree,
+    }
+
+
+def _reference_values(Z: float, st: State) -> tuple[float | None, str | None, float | None]:
+    """``(reference_cm1, reference_source, nist_cm1)``: the measured value, else NIST ASD."""
+    reference = measured_reference(Z, st)
+    ref_cm1 = None
+    ref_source = None
+    if reference is not None:
+        ref_cm1 = convert_energy(reference.value, reference.unit, "cm-1")
+        ref_source = reference.source
+    nist_cm1 = None
+    if st.n == 1 and Z >= 2:
+        ev = nist_ionization_energy_ev(int(Z))
+        if ev is not None:
+            nist_cm1 = convert_energy(ev, "ev", "cm-1")
+            if ref_cm1 is None:
+                ref_cm1 = nist_cm1
+                ref_source = ("NIST Atomic Spectra Database ionization energy (Kramida et al.), "
+                              "via the mendeleev package")
+    return ref_cm1, ref_source, nist_cm1
+
+
+def _spectrum_cautions(Z: float, qed) -> list[str]:
+    """Cautions on large ``Zα`` and on an approximate Bethe logarithm."""
+    za = Z * constants.FINE_STRUCTURE.value
+    cautions = []
+    if za > CAUTION_Z_ALPHA:
+        cautions.append(f"Zα = {za:.3f} > {CAUTION_Z_ALPHA}: first-order Breit–Pauli omits α⁴ terms of "
+                        f"relative size (Zα)² ≈ {za * za:.1e} of the relativistic correction; use fully "
+                        "relativistic (Dirac–Coulomb–Breit, all-order QED) methods for this ion")
+    if qed.bethe_log.approximate:
+        cautions.append("Bethe logarithm from the hydrogenic-scaling approximation (no published "
+                        "two-electron value in data/bethe_logarithms.csv)")
+    return cautions
+
+
+def _spectrum_notes(basis_note: str, mass) -> tuple[str, ...]:
+    return (
+        basis_note,
+        f"nuclear mass: {mass.source}",
+        "not included: mα⁶ terms other than the one-loop radiative one, α³ recoil, nuclear size "
+        "and polarizability (a few 0.01 cm⁻¹ for He 1¹S)",
+        "α² terms use the regularized (global-operator) deltas and p⁴ = 4(E−V)² − 2p1²p2²",
+    )
+
+
 def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mass_value: float | None = None,
                      mass_unit: str = "u", quality: str = "default", wavefunction=None,
                      quadrature_nodes: int = 40) -> SpectrumResult:
@@ -196,110 +338,25 @@ def compute_spectrum(Z, state="1^1S", *, isotope: int | None = None, nuclear_mas
         Gauss–Laguerre nodes for the orbit–orbit and Araki–Sucher quadrature.
     """
     started = time.perf_counter()
-    ion = Ion.parse(Z)
-    if ion.is_model:
-        raise InputError("corrections need a real element (integer Z) for the nuclear mass")
+    ion, st = _element_and_s_state(Z, state)
     Zf = ion.Z
-    st = State.parse(state)
-    if st.L != 0:
-        raise UnsupportedError(f"{st.label}: the corrections are implemented for S states only; "
-                               "the 2^3P fine structure needs P-state wavefunctions")
     mass = nuclear_mass(int(Zf), isotope=isotope, mass=nuclear_mass_value, mass_unit=mass_unit)
-    mu = mass.reduced_mass_me
-    if wavefunction is None:
-        basis = preset_basis(Zf, st, quality)
-        from twoel.basis.correlated import build_matrices
-
-        m0 = build_matrices(basis)
-        eig = solve_generalized(m0.hamiltonian(Zf), m0.overlap)
-        if st.root >= eig.values.shape[0]:
-            raise UnsupportedError(f"the preset basis has too few functions for {st.label}")
-        energy = float(eig.values[st.root])
-        wavefunction = Wavefunction(basis, eig.vectors[:, st.root].copy())
-        root = st.root
-        basis_note = f"preset two-scale Hylleraas basis ({quality}), {basis.size} functions"
-    else:
-        basis = wavefunction.basis
-        root = None
-        energy = None
-        basis_note = f"given wavefunction, {basis.size} functions"
-    if not isinstance(basis, CorrelatedBasis):
-        raise UnsupportedError("the corrections need a correlated S-state basis wavefunction")
-    mats: dict = {}
-    values = operator_values(wavefunction, Zf, energy, matrices_out=mats)
-    energy = values.energy_hartree
-    if not energy < ion.threshold_hartree:
-        raise NotBoundError(f"{ion.label} {st.label}: energy {energy:.10f} Eh is not below the "
-                            f"threshold {ion.threshold_hartree:.10f} Eh in this basis")
-    if root is None:
-        m0 = mats["system"]
-        roots = solve_generalized(m0.hamiltonian(Zf), m0.overlap).values
-        root = int(np.argmin(np.abs(roots - energy)))
-    quad = quadrature_expectations(wavefunction, quadrature_nodes,
-                                   delta_r12=values.delta_r12_direct if st.is_singlet else 0.0)
-    fm = finite_mass_energy(basis, Zf, mass.nuclear_mass_me, root, energy, values.p1_dot_p2,
-                            system=mats["system"], p12_matrix=mats["p1_dot_p2"])
-    bp = breit_pauli_s(Zf, st, values, quad["orbit_orbit"], mu)
-    qed = qed_correction(Zf, st, values.delta_r1_regularized,
-                         values.delta_r12_regularized if st.is_singlet else 0.0,
-                         quad["araki_sucher"], mu)
-    thr = one_electron_ion(Zf, mu)
-    contributions = {
-        "nonrelativistic": thr.nonrelativistic_infinite_mass_hartree - energy,
-        "finite_mass": thr.finite_mass_hartree - (fm.energy_exact_hartree - energy),
-        "alpha2": thr.relativistic_hartree - bp.total_hartree,
-        "alpha3": thr.qed_alpha3_hartree - qed.alpha3_hartree,
-        "alpha4_radiative": thr.qed_alpha4_hartree - qed.alpha4_radiative_hartree,
-    }
-    reference = measured_reference(Zf, st)
-    ref_cm1 = None
-    ref_source = None
-    if reference is not None:
-        ref_cm1 = convert_energy(reference.value, reference.unit, "cm-1")
-        ref_source = reference.source
-    nist_cm1 = None
-    if st.n == 1 and Zf >= 2:
-        ev = nist_ionization_energy_ev(int(Zf))
-        if ev is not None:
-            nist_cm1 = convert_energy(ev, "ev", "cm-1")
-            if ref_cm1 is None:
-                ref_cm1 = nist_cm1
-                ref_source = ("NIST Atomic Spectra Database ionization energy (Kramida et al.), "
-                              "via the mendeleev package")
-    za = Zf * constants.FINE_STRUCTURE.value
-    cautions = []
-    if za > CAUTION_Z_ALPHA:
-        cautions.append(f"Zα = {za:.3f} > {CAUTION_Z_ALPHA}: first-order Breit–Pauli omits α⁴ terms of "
-                        f"relative size (Zα)² ≈ {za * za:.1e} of the relativistic correction; use fully "
-                        "relativistic (Dirac–Coulomb–Breit, all-order QED) methods for this ion")
-    if qed.bethe_log.approximate:
-        cautions.append("Bethe logarithm from the hydrogenic-scaling approximation (no published "
-                        "two-electron value in data/bethe_logarithms.csv)")
-    notes = (
-        basis_note,
-        f"nuclear mass: {mass.source}",
-        "not included: mα⁶ terms other than the one-loop radiative one, α³ recoil, nuclear size "
-        "and polarizability (a few 0.01 cm⁻¹ for He 1¹S)",
-        "α² terms use the regularized (global-operator) deltas and p⁴ = 4(E−V)² − 2p1²p2²",
-    )
-    atom = {
-        "energy_infinite_mass_hartree": energy,
-        "finite_mass": fm.to_dict(),
-        "operators": values.to_dict(),
-        "quadrature": quad,
-        "breit_pauli_hartree": bp.to_dict(),
-        "qed_hartree": qed.to_dict(),
-    }
+    wavefunction, root, energy, basis_note = _atom_wavefunction(Zf, st, quality, wavefunction)
+    atom = _atom_pieces(ion, st, wavefunction, energy, root, mass, quadrature_nodes)
+    thr = one_electron_ion(Zf, mass.reduced_mass_me)
+    ref_cm1, ref_source, nist_cm1 = _reference_values(Zf, st)
     provenance = {"package": "twoel", "version": __version__, "method":
                   "variational nonrelativistic + first-order Breit–Pauli + α³ QED (itemized)",
                   "constants": constants.CODATA_EDITION, "alpha": constants.FINE_STRUCTURE.value,
-                  "basis_functions": basis.size, "quadrature_nodes": quadrature_nodes,
+                  "basis_functions": wavefunction.basis.size, "quadrature_nodes": quadrature_nodes,
                   "elapsed_seconds": time.perf_counter() - started}
     return SpectrumResult(
         Z=Zf, ion=ion.label, state=st.label, isotope=mass.label, nuclear_mass_me=mass.nuclear_mass_me,
-        contributions_hartree=contributions, reference_cm1=ref_cm1, reference_source=ref_source,
-        nist_cm1=nist_cm1, atom=atom, threshold=thr.to_dict(), bethe_log=qed.bethe_log.to_dict(),
-        cautions=tuple(cautions), notes=notes, provenance=provenance)
+        contributions_hartree=_contributions(thr, atom), reference_cm1=ref_cm1,
+        reference_source=ref_source, nist_cm1=nist_cm1, atom=atom.record(),
+        threshold=thr.to_dict(), bethe_log=atom.qed.bethe_log.to_dict(),
+        cautions=tuple(_spectrum_cautions(Zf, atom.qed)), notes=_spectrum_notes(basis_note, mass),
+        provenance=provenance)
 
 
 def compute_fine_structure(Z, state="2^3P", nodes: int = 32) -> dict:

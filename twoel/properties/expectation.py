@@ -200,6 +200,90 @@ def _refine(basis, mats, c: np.ndarray, Z: float, kept=None) -> tuple[dict, floa
     return moments, float(virial.hi + virial.lo), energy
 
 
+def _checked_charge(obj, Z, repulsion) -> float:
+    """The nuclear charge (from the result when ``Z`` is omitted), checked with ``repulsion``."""
+    if Z is None:
+        if not isinstance(obj, EnergyResult):
+            raise InputError("'Z' is needed with a bare wave function")
+        Z = obj.Z
+    if isinstance(Z, bool) or not isinstance(Z, (int, float)) or not math.isfinite(Z) or Z <= 0:
+        raise InputError(f"'Z' must be a positive nuclear charge, got {Z!r}")
+    if isinstance(repulsion, bool) or not isinstance(repulsion, (int, float)) or not math.isfinite(repulsion):
+        raise InputError(f"'repulsion' must be a finite number, got {repulsion!r}")
+    return float(Z)
+
+
+def _correlated_state(obj) -> tuple[object, np.ndarray, str | None]:
+    """Basis, coefficients and state label of a correlated S or P state."""
+    basis, c, state = _unpack(obj)
+    if not hasattr(basis, "exponents") or not hasattr(basis, "powers"):
+        raise UnsupportedError(f"expectation values need a correlated basis, not {type(basis).__name__}")
+    basis_kind(basis)  # rejects L > 1 before any integral
+    return basis, c, state
+
+
+def _operator_averages(basis, c: np.ndarray, Z: float, repulsion, notes: list):
+    """Operator matrices, their normalized expectation values, the norm and whether ``⟨p1⁴⟩`` can be had.
+
+    Returns
+    -------
+    mats, averages, norm, p4_ok
+    """
+    ops = _operators(Z, float(repulsion))
+    p4_ok = True
+    try:
+        mats = operator_matrices(basis, ops)
+    except InputError:
+        ops.pop("p1sq_p2sq")
+        mats = operator_matrices(basis, ops)
+        p4_ok = False
+        notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
+    values = {name: float(c @ m @ c) for name, m in mats.items()}
+    norm = values["overlap"]
+    if not norm > 0:
+        raise InputError("the wave function has zero norm")
+    return mats, {name: value / norm for name, value in values.items()}, norm, p4_ok
+
+
+def _coalescence(basis, c: np.ndarray, norm: float, E: float, averages: dict, Z: float, repulsion,
+                 notes: list) -> dict:
+    """δ functions, direct and regularized (bohr⁻³), and the Kato cusp ratios (``nan`` if undefined).
+
+    ``averages`` are the float64 expectation values (before any refinement) and ``E`` their energy.
+    """
+    d = _primitive_coefficients(basis, c)
+    co = {k: float(d @ m @ d) / norm for k, m in op.coalescence_matrices(basis).items()}
+    delta_r1, delta_r12 = co["delta_r1"], co["delta_r12"]
+    cusp_nucleus = co["cusp_r1"] / delta_r1 if delta_r1 > 0 else float("nan")
+    if basis.sign > 0 and delta_r12 > 0:
+        cusp_electron = co["cusp_r12"] / delta_r12
+    else:
+        cusp_electron = float("nan")
+        notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
+                     "r12 = 0, so ⟨δ³(r12)⟩ = 0")
+    return {"delta_r1": delta_r1, "delta_r12": delta_r12,
+            "delta_r1_regularized": op.delta_r1_regularized(E, averages, Z, repulsion),
+            "delta_r12_regularized": op.delta_r12_regularized(E, averages, Z, repulsion),
+            "cusp_nucleus": cusp_nucleus, "cusp_electron": cusp_electron}
+
+
+def _refined_averages(obj, basis, mats, c: np.ndarray, Z: float, E: float, averages: dict,
+                      notes: list) -> float:
+    """Replace the radial moments in ``averages`` by their refined double-double values.
+
+    Returns the refined virial ratio.
+    """
+    wavefunction = obj.wavefunction if isinstance(obj, EnergyResult) else obj
+    kept = getattr(wavefunction, "refined_coefficients", None)
+    kept = None if kept is None else (kept, wavefunction.refined_energy_hartree)
+    moments, virial_ratio, E_refined = _refine(basis, mats, c, Z, kept)
+    averages.update(moments)
+    notes.append(f"⟨r1⟩, ⟨r1²⟩, ⟨1/r1⟩, ⟨r12⟩, ⟨r12²⟩, ⟨1/r12⟩ and the virial ratio use the refined "
+                 f"eigenvector in double-double (refined energy {E_refined!r} Eh; float64 "
+                 f"vector {E!r} Eh); the other values use the float64 vector")
+    return virial_ratio
+
+
 def expectation_values(result_or_wavefunction, Z: float | None = None, *,
                        repulsion: float = 1.0, refine: bool | None = None) -> ExpectationValues:
     """Expectation values and diagnostics of a state (see the module docstring).
@@ -226,49 +310,14 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
     -------
     ExpectationValues
     """
-    if Z is None:
-        if not isinstance(result_or_wavefunction, EnergyResult):
-            raise InputError("'Z' is needed with a bare wave function")
-        Z = result_or_wavefunction.Z
-    if isinstance(Z, bool) or not isinstance(Z, (int, float)) or not math.isfinite(Z) or Z <= 0:
-        raise InputError(f"'Z' must be a positive nuclear charge, got {Z!r}")
-    Z = float(Z)
-    if isinstance(repulsion, bool) or not isinstance(repulsion, (int, float)) or not math.isfinite(repulsion):
-        raise InputError(f"'repulsion' must be a finite number, got {repulsion!r}")
-    basis, c, state = _unpack(result_or_wavefunction)
-    if not hasattr(basis, "exponents") or not hasattr(basis, "powers"):
-        raise UnsupportedError(f"expectation values need a correlated basis, not {type(basis).__name__}")
-    kind = basis_kind(basis)
+    Z = _checked_charge(result_or_wavefunction, Z, repulsion)
+    basis, c, state = _correlated_state(result_or_wavefunction)
     notes = []
-    ops = _operators(Z, float(repulsion))
-    p4_ok = True
-    try:
-        mats = operator_matrices(basis, ops)
-    except InputError:
-        ops.pop("p1sq_p2sq")
-        mats = operator_matrices(basis, ops)
-        p4_ok = False
-        notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
-    values = {name: float(c @ m @ c) for name, m in mats.items()}
-    norm = values["overlap"]
-    if not norm > 0:
-        raise InputError("the wave function has zero norm")
-    v = {name: value / norm for name, value in values.items()}
+    mats, v, norm, p4_ok = _operator_averages(basis, c, Z, repulsion, notes)
     T = v["kinetic"]
     V = -Z * v["nuclear"] + repulsion * v["repulsion"]
     E = T + V
-    d = _primitive_coefficients(basis, c)
-    co = {k: float(d @ m @ d) / norm for k, m in op.coalescence_matrices(basis).items()}
-    delta_r1, delta_r12 = co["delta_r1"], co["delta_r12"]
-    delta_r1_reg = op.delta_r1_regularized(E, v, Z, repulsion)
-    delta_r12_reg = op.delta_r12_regularized(E, v, Z, repulsion)
-    cusp_nucleus = co["cusp_r1"] / delta_r1 if delta_r1 > 0 else float("nan")
-    if basis.sign > 0 and delta_r12 > 0:
-        cusp_electron = co["cusp_r12"] / delta_r12
-    else:
-        cusp_electron = float("nan")
-        notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
-                     "r12 = 0, so ⟨δ³(r12)⟩ = 0")
+    co = _coalescence(basis, c, norm, E, v, Z, repulsion, notes)
     p1_fourth = op.p1_fourth(E, v, Z, repulsion) if p4_ok else None
     if refine is None:
         refine = isinstance(result_or_wavefunction, EnergyResult) and _refinable(basis, repulsion)
@@ -277,21 +326,10 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
         if not _refinable(basis, repulsion):
             raise UnsupportedError("refinement needs a zero-power, uncontracted S basis and the "
                                    "physical Hamiltonian (repulsion = 1)")
-        wavefunction = (result_or_wavefunction.wavefunction
-                        if isinstance(result_or_wavefunction, EnergyResult) else result_or_wavefunction)
-        kept = getattr(wavefunction, "refined_coefficients", None)
-        kept = None if kept is None else (kept, wavefunction.refined_energy_hartree)
-        moments, virial_ratio, E_refined = _refine(basis, mats, c, Z, kept)
-        v.update(moments)
-        notes.append(f"⟨r1⟩, ⟨r1²⟩, ⟨1/r1⟩, ⟨r12⟩, ⟨r12²⟩, ⟨1/r12⟩ and the virial ratio use the refined "
-                     f"eigenvector in double-double (refined energy {E_refined!r} Eh; float64 "
-                     f"vector {E!r} Eh); the other values use the float64 vector")
+        virial_ratio = _refined_averages(result_or_wavefunction, basis, mats, c, Z, E, v, notes)
     return ExpectationValues(
         Z=Z, state=state, n_terms=int(basis.size), energy_hartree=E, kinetic_hartree=T,
         potential_hartree=V, r1=v["r1"], r1_squared=v["r1_squared"], inv_r1=v["inv_r1"],
         inv_r1_squared=v["inv_r1_squared"], r12=v["r12"], r12_squared=v["r12_squared"],
-        inv_r12=v["inv_r12"], delta_r1=delta_r1, delta_r12=delta_r12,
-        delta_r1_regularized=delta_r1_reg, delta_r12_regularized=delta_r12_reg,
-        grad1_dot_grad2=-v["p1_dot_p2"], p1_fourth=p1_fourth, virial_ratio=virial_ratio,
-        cusp_nucleus=cusp_nucleus, cusp_electron=cusp_electron, normalization=norm,
-        notes=tuple(notes))
+        inv_r12=v["inv_r12"], grad1_dot_grad2=-v["p1_dot_p2"], p1_fourth=p1_fourth,
+        virial_ratio=virial_ratio, normalization=norm, notes=tuple(notes), **co)

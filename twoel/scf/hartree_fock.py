@@ -464,6 +464,66 @@ def _check_sizes(sizes) -> tuple[int, ...]:
     return out
 
 
+def _convergence_table(Z: float, sizes, progress) -> tuple[list[ConvergenceStep], list[SCFSolution]]:
+    """Optimize the even-tempered basis of each size, each started from the one before."""
+    steps: list[ConvergenceStep] = []
+    solutions: list[SCFSolution] = []
+    previous_params: tuple[float, float] | None = None
+    for n in sizes:
+        if progress is not None:
+            progress(n)
+        starts = []
+        if previous_params is not None and n > 1:
+            starts.append(_next_start(*previous_params))
+        a, b, sol, count = optimize_even_tempered(Z, n, starts=starts)
+        change = None if not steps else sol.energy - steps[-1].energy_hartree
+        steps.append(ConvergenceStep(n, a, b, sol.energy, sol.orbital_energy, change,
+                                     sol.virial_ratio, count, sol.condition_number))
+        solutions.append(sol)
+        previous_params = (a, b) if n > 1 else None
+    return steps, solutions
+
+
+def _limit_notes(ion: Ion, final: ConvergenceStep, estimate: float | None) -> list[str]:
+    """Warnings on binding, the orbital energy, convergence, relativity and model charges."""
+    Z = ion.Z
+    notes = []
+    threshold = ion.threshold_hartree
+    if not final.energy_hartree < threshold:
+        notes.append(f"restricted Hartree-Fock does not bind {ion.label}: E_HF = "
+                     f"{final.energy_hartree:.9f} Eh lies above the one-electron ion "
+                     f"(-Z²/2 = {threshold:g} Eh); the split-shell variant (different orbitals, "
+                     "twoel hf --split-shell) does bind it, but it is not Hartree-Fock")
+    if final.orbital_energy_hartree >= 0:
+        notes.append("the 1s orbital energy is not negative: the Hartree-Fock orbital is not bound "
+                     "at this nuclear charge and the basis result is an artefact")
+    if estimate is not None and estimate > 1e-9:
+        notes.append(f"not converged to 1e-9 Eh: the last basis sizes changed the energy by up to "
+                     f"{estimate:.1e} Eh; add larger sizes")
+    relativistic = Z**4 * constants.FINE_STRUCTURE.value**2 / 4.0
+    if relativistic > 1e-3:
+        notes.append(f"nonrelativistic energy (infinite nuclear mass): the leading relativistic "
+                     f"shift of 1s², about -Z⁴α²/4 = {-relativistic:.3g} Eh (hydrogenic estimate), "
+                     + ("exceeds" if relativistic > 0.04 else "is a sizeable fraction of")
+                     + " the correlation energy (~0.04 Eh); compare only with nonrelativistic values")
+    if ion.is_model:
+        notes.append(ion.note)
+    return notes
+
+
+def _limit_provenance(sizes, final: ConvergenceStep, best: SCFSolution) -> dict:
+    return {
+        "package": "twoel", "version": __version__,
+        "method": "restricted Roothaan-Hartree-Fock, 1s Slater functions, even-tempered exponents "
+                  "a*b^k optimized per size (Nelder-Mead), DIIS SCF",
+        "sizes": list(sizes), "size": final.size, "a": final.a, "b": final.b,
+        "precision": "float64", "drop_threshold": SLATER_DROP_THRESHOLD,
+        "exponents": (final.a * final.b ** np.arange(final.size)).tolist(),
+        "coefficients": best.coefficients.tolist(), "constants": constants.CODATA_EDITION,
+        "numpy": np.__version__,
+    }
+
+
 def hartree_fock_limit(Z, sizes=DEFAULT_SIZES, progress=None) -> HartreeFockResult:
     """Restricted HF energy of the 1s² ground state, converged over even-tempered basis sizes.
 
@@ -486,63 +546,20 @@ def hartree_fock_limit(Z, sizes=DEFAULT_SIZES, progress=None) -> HartreeFockResu
     Z = ion.Z
     sizes = _check_sizes(sizes)
     started = time.perf_counter()
-    steps: list[ConvergenceStep] = []
-    solutions: list[SCFSolution] = []
-    previous_params: tuple[float, float] | None = None
-    for n in sizes:
-        if progress is not None:
-            progress(n)
-        starts = []
-        if previous_params is not None and n > 1:
-            starts.append(_next_start(*previous_params))
-        a, b, sol, count = optimize_even_tempered(Z, n, starts=starts)
-        change = None if not steps else sol.energy - steps[-1].energy_hartree
-        steps.append(ConvergenceStep(n, a, b, sol.energy, sol.orbital_energy, change,
-                                     sol.virial_ratio, count, sol.condition_number))
-        solutions.append(sol)
-        previous_params = (a, b) if n > 1 else None
+    steps, solutions = _convergence_table(Z, sizes, progress)
     # every entry is an upper bound to the HF limit: the lowest one is the best estimate
     index = int(np.argmin([s.energy_hartree for s in steps]))
     final, best = steps[index], solutions[index]
     changes = [abs(s.change_hartree) for s in steps[-2:] if s.change_hartree is not None]
     estimate = max(changes) if changes else None
-    notes = []
     threshold = ion.threshold_hartree
-    bound = final.energy_hartree < threshold
-    if not bound:
-        notes.append(f"restricted Hartree-Fock does not bind {ion.label}: E_HF = "
-                     f"{final.energy_hartree:.9f} Eh lies above the one-electron ion "
-                     f"(-Z²/2 = {threshold:g} Eh); the split-shell variant (different orbitals, "
-                     "twoel hf --split-shell) does bind it, but it is not Hartree-Fock")
-    if final.orbital_energy_hartree >= 0:
-        notes.append("the 1s orbital energy is not negative: the Hartree-Fock orbital is not bound "
-                     "at this nuclear charge and the basis result is an artefact")
-    if estimate is not None and estimate > 1e-9:
-        notes.append(f"not converged to 1e-9 Eh: the last basis sizes changed the energy by up to "
-                     f"{estimate:.1e} Eh; add larger sizes")
-    relativistic = Z**4 * constants.FINE_STRUCTURE.value**2 / 4.0
-    if relativistic > 1e-3:
-        notes.append(f"nonrelativistic energy (infinite nuclear mass): the leading relativistic "
-                     f"shift of 1s², about -Z⁴α²/4 = {-relativistic:.3g} Eh (hydrogenic estimate), "
-                     + ("exceeds" if relativistic > 0.04 else "is a sizeable fraction of")
-                     + " the correlation energy (~0.04 Eh); compare only with nonrelativistic values")
-    if ion.is_model:
-        notes.append(ion.note)
     reference = lookup(Z, "1^1S", HF_LIMIT) if not ion.is_model else None
-    provenance = {
-        "package": "twoel", "version": __version__,
-        "method": "restricted Roothaan-Hartree-Fock, 1s Slater functions, even-tempered exponents "
-                  "a*b^k optimized per size (Nelder-Mead), DIIS SCF",
-        "sizes": list(sizes), "size": final.size, "a": final.a, "b": final.b,
-        "precision": "float64", "drop_threshold": SLATER_DROP_THRESHOLD,
-        "exponents": (final.a * final.b ** np.arange(final.size)).tolist(),
-        "coefficients": best.coefficients.tolist(), "constants": constants.CODATA_EDITION,
-        "numpy": np.__version__,
-    }
     return HartreeFockResult(
         Z=Z, ion=ion.label, energy_hartree=final.energy_hartree,
         orbital_energy_hartree=final.orbital_energy_hartree, kinetic_hartree=best.kinetic,
         potential_hartree=best.potential, virial_ratio=final.virial_ratio,
-        estimated_error_hartree=estimate, convergence=tuple(steps), bound=bool(bound),
-        threshold_hartree=threshold, reference=reference, notes=tuple(notes),
-        elapsed_seconds=time.perf_counter() - started, provenance=provenance)
+        estimated_error_hartree=estimate, convergence=tuple(steps),
+        bound=bool(final.energy_hartree < threshold), threshold_hartree=threshold,
+        reference=reference, notes=tuple(_limit_notes(ion, final, estimate)),
+        elapsed_seconds=time.perf_counter() - started,
+        provenance=_limit_provenance(sizes, final, best))

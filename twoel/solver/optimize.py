@@ -82,6 +82,114 @@ class NonlinearOptimum:
     virial_steps: int = 0
 
 
+@dataclass
+class _Search:
+    """The objective of one :func:`minimize_nonlinear` run and the lowest point evaluated so far."""
+
+    energy: Callable[[tuple], Any]
+    decode: Callable[[np.ndarray], tuple]
+    lo: np.ndarray | None
+    hi: np.ndarray | None
+    outside: str
+    penalty: float
+    failure: float
+    progress: Callable[[int, float], None] | None
+    count: int = 0
+    best_energy: float = math.inf
+    best_values: Any = None
+    best_info: Any = None
+
+    def evaluate(self, values) -> float:
+        """``energy(values)`` (Eh), or ``failure`` for a failed point; keeps the lowest."""
+        self.count += 1
+        try:
+            out = self.energy(values)
+            e, info = (out if isinstance(out, tuple) else (out, None))
+            e = float(e)
+        except TwoelError:
+            e, info = math.nan, None
+        if math.isfinite(e):
+            if e < self.best_energy:
+                self.best_energy, self.best_values, self.best_info = e, values, info
+        else:
+            e = self.failure
+        if self.progress is not None:
+            self.progress(self.count, self.best_energy)
+        return e
+
+    def objective(self, x) -> float:
+        """The energy at search coordinates ``x`` (bounds applied as ``outside`` says)."""
+        x = np.atleast_1d(x)
+        if self.lo is not None and self.hi is not None:
+            if self.outside == "clip":
+                x = np.clip(x, self.lo, self.hi)
+            elif not np.all((self.lo < x) & (x < self.hi)):
+                return self.penalty
+        return self.evaluate(self.decode(x))
+
+
+def _first_start(search: _Search, starts, screen_starts: bool) -> tuple:
+    """The start of the search: the lowest screened start (first of equals) or the first."""
+    starts = [tuple(s) for s in starts]
+    if not starts:
+        raise ValueError("minimize_nonlinear needs at least one start")
+    if not screen_starts:
+        return starts[0]
+    screened = [search.evaluate(s) for s in starts]
+    return starts[int(np.argmin(screened))]
+
+
+def _brent_search(search: _Search, x0: np.ndarray, bounds, grid_offsets, xatol: float,
+                  max_iterations: int):
+    """Brent's bounded search in one coordinate, narrowed by an optional grid around ``x0``."""
+    lo, hi = search.lo, search.hi
+    a, b = bounds if bounds is not None else (float(lo[0]), float(hi[0]))
+    if grid_offsets is not None:
+        grid = x0[0] + np.asarray(grid_offsets, dtype=float)
+        if lo is not None and hi is not None:
+            grid = np.clip(grid, lo[0], hi[0])
+        found = [search.objective(g) for g in grid]
+        i = int(np.argmin(found))
+        if i not in (0, len(grid) - 1):
+            a, b = grid[i - 1], grid[i + 1]
+    return scipy.optimize.minimize_scalar(lambda t: search.objective(t), bounds=(a, b),
+                                          method="bounded",
+                                          options={"xatol": xatol, "maxiter": max_iterations})
+
+
+def _simplex_search(search: _Search, x0: np.ndarray, step, xatol: float, fatol: float,
+                    max_evaluations: int, adaptive: bool):
+    """scipy's Nelder–Mead from ``x0`` (initial simplex of edge ``step`` unless ``None``)."""
+    options = {"xatol": xatol, "fatol": fatol, "maxfev": max_evaluations}
+    if adaptive:
+        options["adaptive"] = True
+    if step is not None:
+        options["initial_simplex"] = np.array([x0, *(x0 + step * e for e in np.eye(x0.size))])
+    return scipy.optimize.minimize(search.objective, x0, method="Nelder-Mead", options=options)
+
+
+def _virial_rescale(search: _Search, n_values: int, virial, scaled, steps: int,
+                    tolerance: float) -> int:
+    """Rescale the best point's ``scaled`` values by ``virial(info)`` while it lowers the energy.
+
+    Returns the number of accepted rescalings.
+    """
+    mask = np.ones(n_values, dtype=bool) if scaled is None else np.asarray(scaled, dtype=bool)
+    accepted = 0
+    for _ in range(steps):
+        if search.best_values is None:
+            break
+        lam = virial(search.best_info)
+        if not math.isfinite(lam) or abs(lam - 1.0) < tolerance:
+            break
+        before = search.best_energy
+        search.evaluate(tuple(v * lam if m else v for v, m in zip(search.best_values, mask)))
+        if search.best_energy >= before:
+            break
+        accepted += 1
+    return accepted
+
+
 def minimize_nonlinear(energy: Callable[[tuple], Any], starts: Sequence[Sequence[float]], *,
                        encode: Callable[[tuple], Sequence[float]],
                        decode: Callable[[np.ndarray], tuple],
@@ -138,87 +246,27 @@ def minimize_nonlinear(energy: Callable[[tuple], Any], starts: Sequence[Sequence
     """
     if outside not in ("penalty", "clip"):
         raise ValueError(f"outside must be 'penalty' or 'clip', got {outside!r}")
-    lo = None if lower is None else np.asarray(lower, dtype=float)
-    hi = None if upper is None else np.asarray(upper, dtype=float)
-    state = {"count": 0, "energy": math.inf, "values": None, "info": None}
-
-    def evaluate(values) -> float:
-        state["count"] += 1
-        try:
-            out = energy(values)
-            e, info = (out if isinstance(out, tuple) else (out, None))
-            e = float(e)
-        except TwoelError:
-            e, info = math.nan, None
-        if math.isfinite(e):
-            if e < state["energy"]:
-                state.update(energy=e, values=values, info=info)
-        else:
-            e = failure
-        if progress is not None:
-            progress(state["count"], state["energy"])
-        return e
-
-    def objective(x):
-        x = np.atleast_1d(x)
-        if lo is not None and hi is not None:
-            if outside == "clip":
-                x = np.clip(x, lo, hi)
-            elif not np.all((lo < x) & (x < hi)):
-                return penalty
-        return evaluate(decode(x))
-
-    starts = [tuple(s) for s in starts]
-    if not starts:
-        raise ValueError("minimize_nonlinear needs at least one start")
-    if screen_starts:
-        screened = [evaluate(s) for s in starts]
-        start = starts[int(np.argmin(screened))]
-    else:
-        start = starts[0]
+    search = _Search(energy, decode, None if lower is None else np.asarray(lower, dtype=float),
+                     None if upper is None else np.asarray(upper, dtype=float),
+                     outside, penalty, failure, progress)
+    start = _first_start(search, starts, screen_starts)
     x0 = np.asarray(encode(start), dtype=float)
     if x0.size == 1:
-        bounds = scalar_bounds if scalar_bounds is not None else (float(lo[0]), float(hi[0]))
-        a, b = bounds
-        if scalar_grid is not None:
-            grid = x0[0] + np.asarray(scalar_grid, dtype=float)
-            if lo is not None and hi is not None:
-                grid = np.clip(grid, lo[0], hi[0])
-            found = [objective(g) for g in grid]
-            i = int(np.argmin(found))
-            if i not in (0, len(grid) - 1):
-                a, b = grid[i - 1], grid[i + 1]
-        res = scipy.optimize.minimize_scalar(lambda t: objective(t), bounds=(a, b), method="bounded",
-                                             options={"xatol": scalar_xatol,
-                                                      "maxiter": scalar_max_iterations})
+        res = _brent_search(search, x0, scalar_bounds, scalar_grid, scalar_xatol,
+                            scalar_max_iterations)
         method = "brent-bounded"
     else:
-        options = {"xatol": xatol, "fatol": fatol, "maxfev": max_evaluations}
-        if adaptive:
-            options["adaptive"] = True
-        if step is not None:
-            options["initial_simplex"] = np.array([x0, *(x0 + step * e for e in np.eye(x0.size))])
-        res = scipy.optimize.minimize(objective, x0, method="Nelder-Mead", options=options)
+        res = _simplex_search(search, x0, step, xatol, fatol, max_evaluations, adaptive)
         method = "nelder-mead"
     accepted = 0
     if virial is not None:
-        mask = (np.ones(len(start), dtype=bool) if scaled is None
-                else np.asarray(scaled, dtype=bool))
-        for _ in range(virial_steps):
-            if state["values"] is None:
-                break
-            lam = virial(state["info"])
-            if not math.isfinite(lam) or abs(lam - 1.0) < virial_tolerance:
-                break
-            before = state["energy"]
-            evaluate(tuple(v * lam if m else v for v, m in zip(state["values"], mask)))
-            if state["energy"] >= before:
-                break
-            accepted += 1
-    if state["values"] is None:
+        accepted = _virial_rescale(search, len(start), virial, scaled, virial_steps,
+                                   virial_tolerance)
+    if search.best_values is None:
         raise ConvergenceError("the optimizer found no parameter values with a finite energy")
-    return NonlinearOptimum(tuple(state["values"]), state["energy"], state["info"], state["count"],
-                            method, bool(res.success), str(res.message), tuple(start), accepted)
+    return NonlinearOptimum(tuple(search.best_values), search.best_energy, search.best_info,
+                            search.count, method, bool(res.success), str(res.message),
+                            tuple(start), accepted)
 
 
 @dataclass(frozen=True)
