@@ -277,8 +277,22 @@ def _seed(Z: float, n: int) -> tuple[float, float]:
     return a, b
 
 
+class ConvergenceRow(Result):
+    """A row of a convergence table over basis sizes (a frozen dataclass with ``change_hartree``);
+    ``to_dict()`` is the row of the printed table, in field order."""
+
+    @property
+    def step_hartree(self) -> float | None:
+        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
+        return None if self.change_hartree is None else -self.change_hartree
+
+    def record(self) -> dict:
+        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
+        return {**self.to_dict(), "step_hartree": self.step_hartree}
+
+
 @dataclass(frozen=True, repr=False)
-class ConvergenceStep(Result):
+class ConvergenceStep(ConvergenceRow):
     """Optimized even-tempered basis of one size and its restricted HF energy.
 
     Attributes
@@ -312,23 +326,6 @@ class ConvergenceStep(Result):
     evaluations: int
     condition_number: float
 
-    @property
-    def step_hartree(self) -> float | None:
-        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
-        return None if self.change_hartree is None else -self.change_hartree
-
-    def record(self) -> dict:
-        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
-        return {**self.to_dict(), "step_hartree": self.step_hartree}
-
-    def to_dict(self) -> dict:
-        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
-        return self._with_aliases({
-            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-            "orbital_energy_hartree": self.orbital_energy_hartree,
-            "change_hartree": self.change_hartree,
-            "virial_ratio": self.virial_ratio, "evaluations": self.evaluations,
-            "condition_number": self.condition_number})
 
 
 def optimize_even_tempered(Z: float, n: int, starts=(), max_evaluations: int = 400,

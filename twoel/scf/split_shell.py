@@ -44,7 +44,7 @@ import scipy.linalg
 from twoel._version import __version__
 from twoel.errors import ConvergenceError, InputError, LinearDependenceError
 from twoel.results import Result
-from twoel.scf.hartree_fock import (EVEN_TEMPERED_SEARCH, SLATER_DROP_THRESHOLD, _check_sizes, _next_start,
+from twoel.scf.hartree_fock import (EVEN_TEMPERED_SEARCH, ConvergenceRow, SLATER_DROP_THRESHOLD, _check_sizes, _next_start,
                                    _seed, even_tempered, slater_integrals)
 from twoel.solver.eigen import canonical_orthogonalizer
 from twoel.solver.optimize import minimize_nonlinear
@@ -150,7 +150,7 @@ def split_shell_energy(Z: float, exponents, tolerance: float = 1e-13,
 
 
 @dataclass(frozen=True, repr=False)
-class SplitShellStep(Result):
+class SplitShellStep(ConvergenceRow):
     """Optimized even-tempered basis of one size and its split-shell energy.
 
     ``a`` (bohr⁻¹) and ``b`` define ``ζ_k = a b^k``; ``energy_hartree`` in Eh;
@@ -168,23 +168,6 @@ class SplitShellStep(Result):
     orbital_overlap: float
     virial_ratio: float
     evaluations: int
-
-    @property
-    def step_hartree(self) -> float | None:
-        """``E(N_{k-1}) - E(N_k)`` (Eh, positive when the energy falls; ``None`` for the first size)."""
-        return None if self.change_hartree is None else -self.change_hartree
-
-    def record(self) -> dict:
-        """JSON row of the result's ``convergence``: :meth:`to_dict` plus ``step_hartree``."""
-        return {**self.to_dict(), "step_hartree": self.step_hartree}
-
-    def to_dict(self) -> dict:
-        """The row of the printed convergence table (keys as landed; see :meth:`record`)."""
-        return self._with_aliases({
-            "size": self.size, "a": self.a, "b": self.b, "energy_hartree": self.energy_hartree,
-            "change_hartree": self.change_hartree,
-            "orbital_overlap": self.orbital_overlap, "virial_ratio": self.virial_ratio,
-            "evaluations": self.evaluations})
 
 
 @dataclass(frozen=True, repr=False)
