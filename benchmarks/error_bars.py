@@ -50,11 +50,11 @@ def row(Z, state, size, precision) -> dict:
             return {"skip": str(error).splitlines()[0]}
     seconds = time.perf_counter() - started
     mpmath.mp.dps = 50
-    value = mpmath.mpf(result.energy_hartree_text or repr(result.energy_hartree))
+    full = result.provenance.get("energy_full_text") if isinstance(result.provenance, dict) else None
+    value = mpmath.mpf(full or repr(result.energy_hartree))  # the full value, not the printed digits
     true = float(value - mpmath.mpf(reference.value_text))
     bar = result.error_bar_hartree
-    reliable = result.to_dict().get("error_bar", {}) or {}
-    reliable = reliable.get("reliable", True) if isinstance(reliable, dict) else True
+    reliable = result.reliable is not False
     ratio = bar / abs(true) if bar and true else None
     honest = (bar is not None and bar >= abs(true) and (ratio is None or ratio <= UPPER)) or not reliable
     return {"true": true, "bar": bar, "ratio": ratio, "reliable": reliable, "honest": honest,
