@@ -201,3 +201,17 @@ def test_optimize_keeps_the_starting_edges_when_they_are_lower(monkeypatch):
     assert r.parameters == stored.parameters
     assert any("starting edges are kept" in w for w in r.warnings)
     assert r.optimizer["kept_start"] is True
+
+
+def test_virial_ratio_describes_the_refined_vector():
+    """-<V>/<T> = 2 for the exact state (virial theorem, exact); the refined vector's ratio is
+    reported (the float64 start's is ~1e-8 off at N = 800 in its last digits)."""
+    import warnings
+
+    import twoel
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        r = twoel.solve(2, "1^1S", family="exponential", size=300)
+    assert abs(r.virial_ratio - 2.0) < 1e-10
+    assert r.kinetic_hartree == pytest.approx(-r.energy_hartree, rel=1e-10)  # T = -E for the exact state

@@ -336,8 +336,9 @@ def _notes_and_warnings(plan: _Plan, solved: _Solved, record, kept_start, bar) -
         warnings.warn(text, AccuracyWarning, stacklevel=4)
     if refined is not None:
         notes.append(f"energy refined beyond float64: {refined.method} ({refined.working_bits} bits); "
-                     f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh; the virial ratio, "
-                     "condition number and dropped directions describe the float64 starting solve")
+                     f"arithmetic error <= {refined.numerical_error_hartree:.1e} Eh; the virial ratio "
+                     "is that of the refined vector; the condition number and dropped directions "
+                     "describe the float64 starting solve")
     if eig.n_dropped and refined is None:
         notes.append(f"{eig.n_dropped} near-dependent basis directions dropped "
                      f"(canonical orthogonalization, threshold {eig.drop_threshold:g})")
@@ -399,6 +400,9 @@ def _assemble(plan: _Plan, solved: _Solved, record, kept_start, bar, elapsed) ->
         error_value = bar["error_bar_hartree"]
         energy_text = truncate_text(repr(energy_value), error_value)
     kinetic, potential = solved.kinetic, solved.potential
+    refined_kinetic = None if refined is None else getattr(refined, "kinetic_hartree", None)
+    if refined_kinetic:  # diagnostics of the final (refined) vector, not of the float64 start
+        kinetic, potential = refined_kinetic, refined.energy_hartree - refined_kinetic
     return EnergyResult(
         Z=ion.Z, ion=ion.label, state=state.label, family=plan.fam.name, size=plan.size,
         n_terms=solved.basis.size, energy_hartree=energy_value, bound=bool(bound),
@@ -447,9 +451,11 @@ def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, d
     upper = eig.values[state.root + 1] if state.root + 1 < len(eig.values) else np.inf
     stage(f"extended precision, N = {basis.size} ({digits} digits wanted; exact assembly, then arb "
           "inverse iteration)")
-    return extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
-                           digits, float(condition_digits),
-                           gap=float(min(upper - mixed.energy_hartree, 1.0)))
+    extended = extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
+                               digits, float(condition_digits),
+                               gap=float(min(upper - mixed.energy_hartree, 1.0)))
+    # ⟨T⟩ of the mixed step's vector (double-double): the same state to far below the virial's digits
+    return replace(extended, kinetic_hartree=mixed.kinetic_hartree)
 
 
 def _jsonable(options: dict) -> dict:

@@ -81,6 +81,7 @@ class RefinedEnergy(Result):
     seconds: dict = field(default_factory=dict)
     vector: object = field(default=None, compare=False, repr=False)
     lost_digits: float = 0.0
+    kinetic_hartree: float | None = None
 
     SUMMARY = ("text", "numerical_error_hartree", "method")
 
@@ -88,7 +89,8 @@ class RefinedEnergy(Result):
         return {"energy_hartree": self.energy_hartree, "energy_hartree_text": self.text,
                 "numerical_error_hartree": self.numerical_error_hartree, "method": self.method,
                 "working_bits": self.working_bits, "history": list(self.history),
-                "seconds": dict(self.seconds), "lost_digits": self.lost_digits}
+                "seconds": dict(self.seconds), "lost_digits": self.lost_digits,
+                "kinetic_hartree": self.kinetic_hartree}
 
 
 def check_precision(precision: str, digits: int | None) -> int | None:
@@ -131,7 +133,15 @@ def _inverse_iteration(H, S, sigma: float, start: np.ndarray, target: float, max
             break
         if max_steps == 1:
             break
-    return energies, vector / np.max(np.abs(vector))
+    return energies, vector / np.max(np.abs(vector)), x
+
+
+def _dd_vector(x) -> DD:
+    """An arb column vector as a double-double vector (``hi + lo`` of each midpoint)."""
+    N = x.nrows()
+    hi = np.array([float(x[i, 0].mid()) for i in range(N)])
+    lo = np.array([float(x[i, 0].mid() - hi[i]) for i in range(N)])
+    return DD(hi, lo)
 
 
 def _history(energies) -> tuple:
@@ -175,11 +185,11 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
         ctx.prec = MIXED_BITS
         Ha, Sa = _arb_from_dd(H), _arb_from_dd(S)
         t1 = time.perf_counter()
-        energies, vector = _inverse_iteration(Ha, Sa, float(eig.values[root]), eig.vectors[:, root],
+        energies, vector, exact = _inverse_iteration(Ha, Sa, float(eig.values[root]), eig.vectors[:, root],
                                               1e-30, steps)
         if steps == 1 and _one_step_error(eig, root, energies[-1]) > 1e-16 * abs(float(energies[-1].mid())):
             # a poor float64 start (e.g. H⁻, small gap): take a second step and measure it
-            more, vector = _inverse_iteration(Ha, Sa, float(energies[-1].mid()), vector, 1e-30, 1)
+            more, vector, exact = _inverse_iteration(Ha, Sa, float(energies[-1].mid()), vector, 1e-30, 1)
             energies = energies + more
     finally:
         ctx.prec = old
@@ -198,7 +208,18 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
     text = _clean_arb_text(last.mid().str(32, radius=False))
     return RefinedEnergy(float(last.mid()), text, error, "double-double matrices + 128-bit inverse iteration",
                          MIXED_BITS, history, {"assembly": t1 - t0, "solve": t2 - t1}, vector=vector,
-                         lost_digits=_lost_digits(last, MIXED_BITS))
+                         lost_digits=_lost_digits(last, MIXED_BITS),
+                         kinetic_hartree=_dd_expectation(mats["kinetic"], S, _dd_vector(exact)))
+
+
+def _dd_expectation(matrix: DD, overlap: DD, x: DD) -> float:
+    """``xᵀ M x / xᵀ S x`` contracted in double-double, with the refined vector ``x`` kept to
+    double-double (its norm cancels almost completely, so neither float64 matrices nor a
+    float64-rounded vector can be used)."""
+    from twoel.integrals.doubledouble import dd_dot, dd_matvec
+
+    ratio = dd_dot(x, dd_matvec(matrix, x)) * dd_dot(x, dd_matvec(overlap, x)).reciprocal()
+    return float(ratio.hi + ratio.lo)
 
 
 def _lost_digits(energy, bits: int) -> float:
@@ -285,12 +306,12 @@ def extended_refine(exponents: np.ndarray, sign: int, Z: float, start_energy: fl
             S = mats["overlap"]
             t1 = time.perf_counter()
             seconds["assembly"] += t1 - t0
-            energies, vector = _inverse_iteration(H, S, start_energy, start_vector, target * 1e-2,
+            energies, vector, _exact = _inverse_iteration(H, S, start_energy, start_vector, target * 1e-2,
                                                   max_steps)
             g = max(gap if gap is not None else 0.1, 1e-3)
             one_step = (float(energies[-1].mid()) - float(start_energy)) ** 2 / g
             if len(energies) == 1 and one_step > target * 1e-2:
-                more, vector = _inverse_iteration(H, S, float(energies[-1].mid()), vector,
+                more, vector, _exact = _inverse_iteration(H, S, float(energies[-1].mid()), vector,
                                                   target * 1e-2, 1)
                 energies = energies + more
             seconds["solve"] += time.perf_counter() - t1
