@@ -215,3 +215,26 @@ def test_virial_ratio_describes_the_refined_vector():
         r = twoel.solve(2, "1^1S", family="exponential", size=300)
     assert abs(r.virial_ratio - 2.0) < 1e-10
     assert r.kinetic_hartree == pytest.approx(-r.energy_hartree, rel=1e-10)  # T = -E for the exact state
+
+
+def test_digit_target_chooses_the_size_or_refuses_before_the_run():
+    """--digits without --size picks the smallest stored size whose measured error (against
+    Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)) leaves that many digits; beyond the stored
+    sizes it refuses; a too small --size is said before the run."""
+    import warnings
+
+    from twoel.basis import get_family
+    from twoel.errors import AccuracyWarning, ResourceError
+    from twoel.solver import pipeline
+    from twoel.system import Ion, State
+
+    fam, he, ground = get_family("exponential"), Ion(2), State.parse("1^1S")
+    assert pipeline._size_for_digits(fam, he, ground, 14, None, 600) == 800
+    assert pipeline._size_for_digits(fam, he, ground, 18, None, 600) == 2263
+    with pytest.raises(ResourceError, match="about 18 digits"):
+        pipeline._size_for_digits(fam, he, ground, 20, None, 600)
+    with pytest.warns(AccuracyWarning, match="about 15 digits.*the basis, not the arithmetic"):
+        pipeline._size_for_digits(fam, he, ground, 20, 800, 800)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        pipeline._size_for_digits(fam, he, ground, 12, 800, 800)  # enough: no warning

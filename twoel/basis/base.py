@@ -131,6 +131,11 @@ class TrialFamily(ABC):
         """Size used for ``state`` when twoel chooses it (:attr:`Support.sizes`, else the default)."""
         return self.supports().sizes.get(state.L, self.default_size)
 
+    def convergence(self, ion: Ion, state: State) -> list[tuple[int, float]]:
+        """Stored ``(size, E(size) - E_exact)`` pairs (Eh) measured for ``(ion, state)`` against a
+        published value, smallest size first; empty when none are stored."""
+        return []
+
     def tuning_size(self, ion: Ion, state: State, size: int | None) -> int | None:
         """The basis size on which ``optimize=True`` tunes the nonlinear parameters."""
         support = self.supports()

@@ -190,6 +190,12 @@ class ExponentialFamily(TrialFamily):
         target = stored.box_set_for(ion, state).optimized_size or self.support.tuning_size
         return min(size, target, self.support.tuning_max_size)
 
+    def convergence(self, ion: Ion, state: State) -> list[tuple[int, float]]:
+        """The stored set's measured ``convergence`` (only for the exact ``(Z, state)`` stored)."""
+        box_set = stored.box_set_for(ion, state)
+        table = box_set.extra.get("convergence") if box_set.origin == "stored" else None
+        return sorted((int(n), float(e)) for n, e in (table or {}).get("error_hartree_by_size", []))
+
     def provenance(self, ion: Ion, state: State) -> dict:
         """Where the box edges of ``(ion, state)`` come from (JSON-ready)."""
         return stored.box_set_for(ion, state).provenance()

@@ -13,6 +13,7 @@ tests a family's name.
 
 from __future__ import annotations
 
+import math
 import time
 import warnings
 from dataclasses import dataclass, replace
@@ -121,8 +122,11 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
               drop_threshold) -> _Plan:
     ion = Z if isinstance(Z, Ion) else Ion.parse(Z)
     state = State.parse(state)
+    given_size = size
     fam, size = choose_family(state, family, size, ion)
     digit_target = check_precision(precision, digits)
+    if digits is not None:
+        size = _size_for_digits(fam, ion, state, digit_target, given_size, size)
     size = fam.resolve_size(size)
     if precision == "extended" and size is not None and size > MAX_EXTENDED_SIZE:
         raise ResourceError(f"extended precision is limited to {MAX_EXTENDED_SIZE} terms "
@@ -135,6 +139,46 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
     do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
     return _Plan(ion, state, fam, size, options, params, bool(do_optimize and params), precision,
                  digit_target, drop_threshold)
+
+
+def digits_error(energy_scale: float, digits: int) -> float:
+    """Largest error (Eh) that leaves ``digits`` significant digits of an energy of magnitude
+    ``energy_scale`` correct: half a unit in the last of them."""
+    return 0.5 * 10.0 ** (math.floor(math.log10(abs(energy_scale))) - digits + 1)
+
+
+def _size_for_digits(fam, ion: Ion, state: State, digits: int, given_size, size):
+    """The size that reaches ``digits`` by the family's stored convergence (``size`` given: a
+    warning before the run when it cannot reach them)."""
+    table = fam.convergence(ion, state)
+    if not table:
+        if given_size is None:
+            warnings.warn(f"no convergence data stored for {ion.label} {state.label}: the default size "
+                          f"is used and the error bar will say how many of the {digits} digits it reached",
+                          AccuracyWarning, stacklevel=4)
+        return size
+    target = digits_error(ion.threshold_hartree, digits)
+    enough = [n for n, error in table if error <= target]
+    reached = max(table)  # the largest size measured and its error
+    if given_size is None:
+        if not enough:
+            raise ResourceError(f"{digits} significant digits need more than the largest measured basis: "
+                                f"N = {reached[0]} reaches an error of {reached[1]:.0e} Eh (about "
+                                f"{_digits_of(ion.threshold_hartree, reached[1])} digits); ask for fewer digits")
+        return enough[0]
+    below = [error for n, error in table if n <= given_size]
+    expected = below[-1] if below else table[0][1]
+    if expected > target:
+        need = f"N >= {enough[0]}" if enough else f"more than N = {reached[0]}"
+        warnings.warn(f"size {given_size} reaches about {_digits_of(ion.threshold_hartree, expected)} digits by the "
+                      f"stored convergence of {ion.label} {state.label}; {digits} digits need {need}: "
+                      "the basis, not the arithmetic, limits the result", AccuracyWarning, stacklevel=4)
+    return size
+
+
+def _digits_of(energy_scale: float, error: float) -> int:
+    """Significant digits of an energy of magnitude ``energy_scale`` left correct by ``error``."""
+    return max(0, int(math.floor(math.floor(math.log10(abs(energy_scale))) + 1 - math.log10(2.0 * error))))
 
 
 def _starting_parameters(fam, ion, state, size, options, given) -> list[Parameter]:
