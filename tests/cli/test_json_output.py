@@ -93,3 +93,20 @@ def test_full_energy_json_keeps_everything(energy_outputs):
             assert full[key] == value, key
     for key, value in compact["provenance"].items():
         assert full["provenance"][key] == value, key
+
+
+def test_converge_json_compact_and_full(capsys):
+    """``twoel converge --json`` keeps every row but only a short provenance; ``--full`` adds the
+    boxes of the last basis.  The energies are variational upper bounds of Schwartz's He value
+    (C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006))."""
+    from twoel.cli import main
+
+    argv = ["converge", "--Z", "2", "--sizes", "50,71,100", "--json", "--quiet"]
+    assert main(argv) == 0
+    compact = _strict_loads(capsys.readouterr().out)
+    assert main(argv + ["--full"]) == 0
+    full = _strict_loads(capsys.readouterr().out)
+    assert "boxes" not in compact["provenance"]["last"] and full["provenance"]["last"]["boxes"]
+    assert [r["size"] for r in compact["rows"]] == [50, 71, 100]
+    assert [r["energy_hartree"] for r in compact["rows"]] == [r["energy_hartree"] for r in full["rows"]]
+    assert all(r["energy_hartree"] > -2.903724377034120 for r in compact["rows"])
