@@ -10,7 +10,7 @@ hidden temporary folder beside the target, which is renamed into place only when
 build succeeded.  An existing target is refused unless ``overwrite=True``.
 
 :func:`dumps_json` is the one JSON encoder of twoel's output (command line, report provenance):
-standard JSON without NaN/Infinity literals, NumPy scalars and arrays as plain numbers and lists.
+standard JSON with ``null`` for infinite or undefined numbers, NumPy scalars and arrays as plain numbers and lists.
 
 These helpers are self-contained (no other twoel module is needed except :mod:`twoel.errors`).
 """
@@ -29,28 +29,45 @@ from twoel.errors import InputError
 
 
 def _json_default(value):
+    if hasattr(value, "tolist"):  # NumPy arrays and scalars (a scalar's tolist() is a Python number)
+        return value.tolist()
     if hasattr(value, "item"):
         return value.item()
-    if hasattr(value, "tolist"):
-        return value.tolist()
     if hasattr(value, "to_dict"):
         return value.to_dict()
     raise TypeError(f"not JSON serializable: {type(value).__name__}")
 
 
 def _finite_json(value):
-    """Replace non-finite floats by the strings ``"inf"``, ``"-inf"``, ``"nan"`` (standard JSON)."""
-    if isinstance(value, float) and not math.isfinite(value):
-        return "inf" if value > 0 else ("-inf" if value < 0 else "nan")
+    """Plain data of ``value`` with every infinite or undefined number replaced by ``None``.
+
+    NumPy scalars and arrays and objects with ``to_dict()`` are converted first, so a
+    non-finite number inside them becomes ``null`` as well (standard JSON, RFC 8259, has no
+    literal for infinity or NaN).
+    """
+    if isinstance(value, (str, bool, int)) or value is None:
+        return value
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
     if isinstance(value, dict):
         return {k: _finite_json(v) for k, v in value.items()}
     if isinstance(value, (list, tuple)):
         return [_finite_json(v) for v in value]
+    if hasattr(value, "to_dict") and callable(value.to_dict):
+        return _finite_json(value.to_dict())
+    if hasattr(value, "tolist") or hasattr(value, "item"):
+        converted = _json_default(value)
+        if converted is not value:
+            return _finite_json(converted)
     return value
 
 
 def dumps_json(obj) -> str:
-    """Standard JSON text of ``obj`` (indent 2, UTF-8 characters kept, no NaN/Infinity literals).
+    """Standard JSON text of ``obj`` (indent 2, UTF-8 characters kept).
+
+    Infinite and undefined numbers (``inf``, ``nan``, e.g. the condition number of a singular
+    overlap matrix) are written as ``null``: the text never holds ``Infinity``/``NaN`` literals
+    nor ``"inf"``/``"nan"`` strings in their place.
 
     Parameters
     ----------
@@ -62,7 +79,8 @@ def dumps_json(obj) -> str:
     str
         The JSON text, without a final newline.
     """
-    return json.dumps(_finite_json(obj), indent=2, ensure_ascii=False, default=_json_default)
+    return json.dumps(_finite_json(obj), indent=2, ensure_ascii=False, allow_nan=False,
+                      default=_json_default)
 
 
 def _default_mode(directory: bool = False) -> int:

@@ -155,6 +155,44 @@ def print_json(obj) -> None:
     sys.stdout.write(dumps_json(obj) + "\n")
 
 
+#: provenance entries kept in a compact JSON record (``--full`` prints the whole provenance)
+PROVENANCE_SUMMARY = ("package", "version", "method", "family", "size", "state", "Z", "precision",
+                      "constants")
+#: the ``record`` entry of a compact JSON record
+COMPACT_NOTE = "compact: pass --full for the whole record (basis, parameters, full provenance)"
+
+
+def add_full_argument(parser: argparse.ArgumentParser) -> None:
+    """The ``--full`` option of the commands whose JSON record is compact by default."""
+    parser.add_argument("--full", action="store_true",
+                        help="with --json: print the whole record (basis, every parameter and "
+                             "root, full provenance) instead of the compact one")
+
+
+def provenance_summary(provenance: dict | None) -> dict:
+    """The short provenance of a compact record: method, family/size, precision, versions."""
+    provenance = provenance or {}
+    return {key: provenance[key] for key in PROVENANCE_SUMMARY if key in provenance}
+
+
+def energy_record(result, full: bool = False) -> dict:
+    """The JSON record of an energy result: compact by default, ``to_dict()`` with ``full``.
+
+    The compact record keeps every entry of :meth:`EnergyResult.to_dict` under its usual name
+    (energy with text and error bar, ion, state, family, size, bound, ionization energies,
+    reference and difference, parameters, roots, diagnostics, warnings and notes) but only a
+    short provenance (:data:`PROVENANCE_SUMMARY`: no basis listing, which is hundreds of lines);
+    it adds ``record`` saying that it is compact.
+    """
+    record = result.to_dict()
+    if full:
+        return record
+    compact = dict(record)
+    compact["provenance"] = provenance_summary(record.get("provenance"))
+    compact["record"] = COMPACT_NOTE
+    return compact
+
+
 def energy_line(label: str, value_hartree: float | None, units=("hartree", "ev", "cm-1", "kj/mol", "mhz")) -> str:
     from twoel.units import UNIT_LABELS, hartree_to
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import add_charge_argument, print_json
+from twoel.cli.common import COMPACT_NOTE, add_charge_argument, add_full_argument, print_json
 
 NAME = "converge"
 HELP = "convergence of the energy with the basis size: differences, ratios, extrapolation, error bar"
@@ -33,7 +33,9 @@ def add_parser(subparsers) -> None:
     p.add_argument("--precision", choices=("float64", "extended"), default="float64",
                    help="arithmetic (see 'twoel energy --help')")
     p.add_argument("--digits", type=int, default=None, help="with --precision extended: digit target")
-    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--json", action="store_true",
+                   help="print one JSON object (compact; add --full for the full provenance)")
+    add_full_argument(p)
     p.add_argument("--quiet", action="store_true", help="no progress on stderr")
     p.set_defaults(run=run)
 
@@ -65,6 +67,26 @@ def table_text(study) -> str:
     return "\n".join(lines) + "\n"
 
 
+#: entries of the provenance of the last basis kept in the compact record
+LAST_SUMMARY = ("version", "family", "precision", "constants")
+
+
+def study_record(study, full: bool = False) -> dict:
+    """The JSON record of a convergence study: every row and result, and a short provenance
+    (the method of the error bar and the version/family/precision of the last basis) unless
+    ``full`` asks for all of it (the boxes and refinement of the last basis)."""
+    record = study.to_dict()
+    if full:
+        return record
+    provenance = dict(record.get("provenance") or {})
+    last = provenance.get("last")
+    if isinstance(last, dict):
+        provenance["last"] = {key: last[key] for key in LAST_SUMMARY if key in last}
+    record["provenance"] = provenance
+    record["record"] = COMPACT_NOTE
+    return record
+
+
 def run(args: argparse.Namespace) -> int:
     from twoel.analysis.convergence import default_sizes, run_study
     from twoel.errors import InputError
@@ -81,7 +103,7 @@ def run(args: argparse.Namespace) -> int:
         study = run_study(args.Z, args.state, sizes, family=args.family, precision=args.precision,
                           digits=args.digits, progress=progress)
     if args.json:
-        print_json(study.to_dict())
+        print_json(study_record(study, full=args.full))
     else:
         sys.stdout.write(table_text(study))
     return 0

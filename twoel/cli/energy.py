@@ -5,7 +5,8 @@ from __future__ import annotations
 import argparse
 import sys
 
-from twoel.cli.common import add_basis_arguments, add_charge_argument, basis_keywords, energy_line, print_json
+from twoel.cli.common import (add_basis_arguments, add_charge_argument, add_full_argument, basis_keywords,
+                              energy_line, energy_record, print_json)
 
 NAME = "energy"
 HELP = "variational energy and ionization energy of one state of one ion"
@@ -20,7 +21,9 @@ def add_parser(subparsers) -> None:
                         "refinement) or extended (exponential family: arbitrary precision)")
     p.add_argument("--digits", type=int, default=None,
                    help="with --precision extended: significant digits aimed at (default 20)")
-    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--json", action="store_true",
+                   help="print one JSON object (compact; add --full for the basis and provenance)")
+    add_full_argument(p)
     p.add_argument("--quiet", action="store_true", help="no progress on stderr")
     p.set_defaults(run=run)
 
@@ -63,7 +66,7 @@ def run(args: argparse.Namespace) -> int:
         result = solve(args.Z, progress=progress, precision=args.precision, digits=args.digits,
                        on_stage=stage_reporter(enabled=not args.quiet), **basis_keywords(args))
     if args.json:
-        print_json(result.to_dict())
+        print_json(energy_record(result, full=args.full))
     else:
         sys.stdout.write(summary_text(result))
     return 0

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import contextlib
 import sys
 
 from twoel.cli.common import add_basis_arguments, basis_keywords, positive_int, resolved_family
@@ -22,24 +23,47 @@ def add_parser(subparsers) -> None:
     add_basis_arguments(p)
     p.add_argument("--format", choices=("markdown", "csv", "latex", "json"), default="markdown",
                    help="table format (default markdown)")
+    p.add_argument("--json", action="store_true", help="same as --format json (no progress lines)")
     p.add_argument("--columns", default=None,
                    help="comma-separated columns to show, or 'all' (default: a compact set for "
                         "markdown/latex, every column for csv/json)")
     p.add_argument("--jobs", type=positive_int, default=1,
                    help="worker processes for the sweep (default 1 = serial; 0 = one per core)")
-    p.add_argument("--quiet", action="store_true", help="no progress on stderr")
+    p.add_argument("--quiet", action="store_true",
+                   help="no progress on stderr (also off with --json / --format json)")
     p.set_defaults(run=run)
+
+
+@contextlib.contextmanager
+def row_counter(enabled: bool = True):
+    """Yield a ``progress(done, total)`` callback for the rows of a series, or ``None``.
+
+    On an interactive stderr it moves a bar (:func:`twoel.cli.progress.counter`); otherwise it
+    writes one line ``series: row DONE/TOTAL`` per finished row, so a long run sent to a file or
+    a pipe still shows how far it got.
+    """
+    from twoel.cli.progress import counter
+
+    if not enabled or sys.stderr.isatty():
+        with counter("ions", enabled=enabled, unit="ion") as update:
+            yield update
+        return
+
+    def update(done: int | None = None, total: int | None = None) -> None:
+        sys.stderr.write(f"series: row {done}/{total}\n" if total else f"series: row {done}\n")
+        sys.stderr.flush()
+
+    yield update
 
 
 def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | None = 1):
     """Solve for every charge and collect one row per ion (see :func:`twoel.analysis.sweep.series_frame`).
 
-    ``progress`` shows a bar on an interactive stderr.
+    ``progress`` reports each finished row on stderr (:func:`row_counter`).
     """
     from twoel.analysis.sweep import series_frame as build
-    from twoel.cli.progress import counter
 
-    with counter("ions", enabled=progress, unit="ion") as update:
+    with row_counter(enabled=progress) as update:
         return build(charges, keywords, progress=update, jobs=jobs)
 
 
@@ -47,9 +71,12 @@ def run(args: argparse.Namespace) -> int:
     from twoel.report.tables import render, select_columns
     from twoel.system import parse_charge_range
 
+    if args.json:
+        args.format = "json"
     charges = parse_charge_range(args.Z)
     keywords = basis_keywords(args)
-    frame = series_frame(charges, keywords, progress=not args.quiet, jobs=args.jobs)
+    frame = series_frame(charges, keywords, progress=not (args.quiet or args.format == "json"),
+                         jobs=args.jobs)
     if args.columns is not None:
         columns = select_columns(frame, args.columns)
     elif args.format in ("markdown", "latex"):
