@@ -151,7 +151,7 @@ def test_bad_inputs():
 def test_properties_cli_json(capsys):
     """2³P through the command: virial ratio 2 (exact for the optimized state), Kato's
     electron-nucleus cusp -Z (T. Kato, Commun. Pure Appl. Math. 10, 151 (1957)); a triplet has
-    no electron-electron cusp (written "nan" in standard JSON)."""
+    no electron-electron cusp (written null in standard JSON)."""
     assert main(["properties", "--Z", "2", "--state", "2^3P", "--size", "80", "--json"]) == 0
     data = json.loads(capsys.readouterr().out)
     assert data["state"] == "2^3P"
@@ -159,7 +159,7 @@ def test_properties_cli_json(capsys):
     assert ev["virial_ratio"] == pytest.approx(2.0, abs=1e-5)
     assert ev["units"]["delta_r1"] == "bohr^-3"
     assert ev["cusp_nucleus"] == pytest.approx(-2.0, abs=0.02)
-    assert ev["cusp_electron"] == "nan"  # triplet: undefined (standard JSON has no NaN)
+    assert ev["cusp_electron"] is None  # triplet: undefined (standard JSON has no NaN)
 
 
 def test_double_double_moments_of_the_hydrogenic_product():

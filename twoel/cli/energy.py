@@ -34,8 +34,9 @@ def summary_text(result) -> str:
              f"{result.precision})"]
     if result.bound:
         lines.append(f"energy: {result.energy_hartree_text or format(result.energy_hartree, '.15g')} Eh"
-                     + (f" ± {result.error_bar_hartree:.1e}" if result.error_bar_hartree else ""))
-        lines.append(energy_line("ionization energy", result.ionization_energy_hartree))
+                     + (f" ± {result.error_bar_hartree:.1e}" if result.error_bar_hartree else "")
+                     + ("  (reliable: false)" if result.reliable is False else ""))
+        lines.append(_ionization_line(result))
     else:
         lines.append(f"not bound: {result.message}")
     lines.append(f"threshold (one-electron ion): {result.threshold_hartree!r} Eh")
@@ -48,14 +49,46 @@ def summary_text(result) -> str:
         lines.append("reference: none tabulated")
     if result.parameters:
         lines.append("parameters: " + ", ".join(f"{k} = {v:.10g}" for k, v in result.parameters.items()))
-    lines.append(f"virial ratio -V/T: {result.virial_ratio:.12f}   overlap condition number: "
-                 f"{result.condition_number:.2e}   dropped directions: {result.n_dropped}")
+    lines.append(_diagnostics_line(result))
     for text in result.notes:
         lines.append(f"note: {text}")
     for text in result.warnings:
         lines.append(f"warning: {text}")
     lines.append(f"time: {result.elapsed_seconds:.2f} s   twoel {result.provenance.get('version')}")
     return "\n".join(lines) + "\n"
+
+
+def _ionization_line(result) -> str:
+    """The ionization energy in every unit, with its uncertainty when the energy has a bar (only
+    the digits the bar supports); without a bar, as computed."""
+    bar = result.error_bar_hartree
+    if not bar:
+        return energy_line("ionization energy", result.ionization_energy_hartree)
+    from decimal import Decimal, localcontext
+
+    from twoel.report.numbers import format_uncertain
+    from twoel.units import UNIT_LABELS, hartree_to
+
+    full = result.provenance.get("energy_full_text") or repr(result.energy_hartree)
+    with localcontext() as context:
+        context.prec = 40
+        ie = Decimal(repr(result.threshold_hartree)) - Decimal(full)
+        parts = []
+        for unit in ("hartree", "ev", "cm-1", "kj/mol", "mhz"):
+            factor = Decimal(repr(hartree_to(1.0, unit)))
+            parts.append(f"{format_uncertain(ie * factor, Decimal(repr(bar)) * factor)} {UNIT_LABELS[unit]}")
+    return "ionization energy: " + " = ".join(parts)
+
+
+def _diagnostics_line(result) -> str:
+    """Virial ratio, conditioning and dropped directions, saying which solve they describe."""
+    condition = (f"{result.condition_number:.2e}" if result.condition_number == result.condition_number
+                 and result.condition_number != float("inf") else "not finite (near-dependent basis)")
+    if "refinement" in result.provenance:
+        return (f"virial ratio -V/T (refined vector): {result.virial_ratio:.12f}   float64 start: overlap "
+                f"condition number {condition}, dropped directions {result.n_dropped}")
+    return (f"virial ratio -V/T: {result.virial_ratio:.12f}   overlap condition number: "
+            f"{condition}   dropped directions: {result.n_dropped}")
 
 
 def run(args: argparse.Namespace) -> int:
