@@ -706,20 +706,9 @@ class UnsupportedFormat(InputError):
 
 def compare_numbers(old: dict, new: dict) -> list[str]:
     """Differences between two ``numbers`` records (empty list: identical bit for bit)."""
-    diffs = []
-    for table in sorted(set(old) | set(new)):
-        a, b = old.get(table, {}), new.get(table, {})
-        for column in sorted(set(a) | set(b)):
-            va, vb = a.get(column), b.get(column)
-            if va is None or vb is None or len(va) != len(vb):
-                diffs.append(f"{table}.{column}: present in only one run or of different length")
-                continue
-            for i, (x, y) in enumerate(zip(va, vb)):
-                same = (x is None and y is None) or (x is not None and y is not None and
-                                                     float(x).hex() == float(y).hex())
-                if not same:
-                    diffs.append(f"{table}.{column}[{i}]: {x!r} then {y!r}")
-    return diffs
+    from twoel.report.reproduce import bit_differences
+
+    return bit_differences(old, new)
 
 
 def rebuild_from_provenance(path, out, *, overwrite: bool = False, html: bool = False,
@@ -745,5 +734,7 @@ def rebuild_from_provenance(path, out, *, overwrite: bool = False, html: bool = 
     result = build_report(data["config"], out, overwrite=overwrite, html=html, jobs=jobs,
                           progress=progress)
     rerun = json.loads((Path(result.path) / "provenance.json").read_text(encoding="utf-8"))
-    reproduction = check_reproduction(data, rerun, mode)
+    reproduction = check_reproduction(data, rerun, mode,
+                                      expected_tasks=report_tasks(normalize_config(data["config"])),
+                                      packages_now=package_versions())
     return ReportResult(result.path, result.files, result.numbers, reproduction, result.notes)

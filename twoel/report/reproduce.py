@@ -62,6 +62,7 @@ import platform
 import sys
 
 from twoel.errors import InputError
+from twoel.report.tables import UNCERTAINTY_COLUMNS     # value column -> its uncertainty column
 
 #: relative tolerance of an energy from float64 arithmetic (see the module docstring)
 REL_ENERGY = 1e-12
@@ -78,12 +79,6 @@ THREAD_VARIABLES = ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"
 DIGEST_BLOCKS = ("config", "computations", "constants", "numbers", "packages", "environment")
 NOT_RECORDED = "not recorded"
 
-#: value column -> the column holding its recorded uncertainty (same unit)
-try:
-    from twoel.report.tables import UNCERTAINTY_COLUMNS
-except ImportError:  # pragma: no cover - tables is part of the package
-    UNCERTAINTY_COLUMNS = {"energy_hartree": "error_bar_hartree",
-                           "reference_hartree": "reference_uncertainty_hartree"}
 
 _EXACT_COLUMNS = frozenset({"Z", "reference_uncertainty_hartree"})
 
@@ -218,6 +213,76 @@ def _aitken_gain(energies: list, k: int):
     return (1 + 2 * p) ** 2
 
 
+class _Rows:
+    """Per-row tolerances of the energy and the reference of one recorded table."""
+
+    def __init__(self, columns: dict):
+        self.columns = columns
+        self.energies = columns.get("energy_hartree") or []
+        self.ionization = columns.get("ionization_energy_hartree") or []
+        self.tE = _energy_tolerances(columns)
+        self.ref = []
+        for i, _ in enumerate(columns.get("reference_hartree") or []):
+            u = _uncertainty(columns, "reference_hartree", i)
+            self.ref.append((u, "uncertainty") if u else (0.0, "exact"))
+        extrapolated = columns.get("extrapolated_hartree") or []
+        self.last_extrapolated = max((k for k, v in enumerate(extrapolated) if _abs(v) is not None),
+                                     default=None)
+
+    def t_e(self, i):
+        return self.tE[i][0] if i < len(self.tE) else None
+
+    def energy(self, i):
+        return self.energies[i] if i < len(self.energies) and _abs(self.energies[i]) is not None else None
+
+    def extrapolated(self, k):
+        if k is None or k < 2:
+            return None
+        gain = _aitken_gain(self.energies, k)
+        worst = [self.t_e(j) for j in (k - 2, k - 1, k)]
+        return None if gain is None or None in worst else gain * max(worst)
+
+
+def _derived_tolerance(rows: _Rows, column: str, i: int, x):
+    """Tolerance of a computed column from the row energy's (None: the default rule)."""
+    t_e = rows.t_e(i)
+    if column == "ionization_energy_hartree":
+        return t_e
+    if column.startswith("ionization_energy_"):
+        ih = _abs(rows.ionization[i]) if i < len(rows.ionization) else None
+        return abs(x) * (t_e / ih + REL_ENERGY) if ih and t_e is not None and _abs(x) is not None else None
+    if column == "difference_hartree":
+        return None if t_e is None else t_e + (rows.ref[i][0] if i < len(rows.ref) else 0.0)
+    if column == "increment_hartree":
+        return t_e + rows.t_e(i - 1) if i >= 1 and t_e is not None and rows.t_e(i - 1) is not None else None
+    if column == "extrapolated_hartree":
+        return rows.extrapolated(i)
+    if column == "extrapolation_error_hartree":
+        last = rows.extrapolated(rows.last_extrapolated)
+        return None if t_e is None or last is None else t_e + last
+    if column == "error_bar_hartree":
+        e = rows.energy(i)
+        return None if e is None else ERROR_BAR_GAIN * REL_ENERGY * abs(e)
+    if column == "virial_ratio":
+        return REL_FIRST_ORDER * abs(x) if _abs(x) is not None else None
+    return None
+
+
+def _tolerance(rows: _Rows, column: str, i: int, x) -> tuple:
+    if column in _EXACT_COLUMNS:
+        return 0.0, "exact"
+    if column == "reference_hartree":
+        return rows.ref[i]
+    if column == "energy_hartree":
+        return rows.tE[i]
+    source = rows.tE[i][1] if i < len(rows.tE) and column != "virial_ratio" else "arithmetic"
+    tol = _derived_tolerance(rows, column, i, x)
+    if tol is None:
+        e = rows.energy(i)
+        tol, source = REL_ENERGY * max(_abs(x) or 0.0, abs(e) if e is not None else 0.0), "arithmetic"
+    return tol, source
+
+
 def number_tolerances(numbers: dict) -> dict:
     """``{table: {column: [(tolerance, source)]}}`` for a recorded ``numbers`` block.
 
@@ -226,72 +291,9 @@ def number_tolerances(numbers: dict) -> dict:
     """
     out = {}
     for table, columns in numbers.items():
-        tE = _energy_tolerances(columns)
-        energies = columns.get("energy_hartree") or []
-        ionization = columns.get("ionization_energy_hartree") or []
-        ref_tol = []
-        for i, _ in enumerate(columns.get("reference_hartree") or []):
-            u = _uncertainty(columns, "reference_hartree", i)
-            ref_tol.append((u, "uncertainty") if u else (0.0, "exact"))
-
-        def t_e(i):
-            return tE[i][0] if i < len(tE) and tE[i][0] is not None else None
-
-        def extrapolated_tol(k):
-            gain = _aitken_gain(energies, k)
-            worst = [t_e(j) for j in (k - 2, k - 1, k)] if k >= 2 else []
-            if gain is None or None in worst or not worst:
-                return None
-            return gain * max(worst)
-
-        finite_extrapolated = [k for k, v in enumerate(columns.get("extrapolated_hartree") or [])
-                               if _abs(v) is not None]
-        table_out = {}
-        for column, values in columns.items():
-            tols = []
-            for i, x in enumerate(values):
-                e = energies[i] if i < len(energies) and _abs(energies[i]) is not None else None
-                source = tE[i][1] if i < len(tE) else "arithmetic"
-                if column in _EXACT_COLUMNS:
-                    tols.append((0.0, "exact"))
-                    continue
-                if column == "reference_hartree":
-                    tols.append(ref_tol[i])
-                    continue
-                if column == "energy_hartree":
-                    tols.append(tE[i])
-                    continue
-                tol = None
-                if column == "ionization_energy_hartree":
-                    tol = t_e(i)
-                elif column.startswith("ionization_energy_") and _abs(x) is not None:
-                    ih = _abs(ionization[i]) if i < len(ionization) else None
-                    if ih and t_e(i) is not None:
-                        tol = abs(x) * (t_e(i) / ih + REL_ENERGY)
-                elif column == "difference_hartree":
-                    if t_e(i) is not None:
-                        tol = t_e(i) + (ref_tol[i][0] if i < len(ref_tol) else 0.0)
-                elif column == "increment_hartree":
-                    if i >= 1 and t_e(i) is not None and t_e(i - 1) is not None:
-                        tol = t_e(i) + t_e(i - 1)
-                elif column == "extrapolated_hartree":
-                    tol = extrapolated_tol(i)
-                elif column == "extrapolation_error_hartree":
-                    last = extrapolated_tol(finite_extrapolated[-1]) if finite_extrapolated else None
-                    if t_e(i) is not None and last is not None:
-                        tol = t_e(i) + last
-                elif column == "error_bar_hartree":
-                    if e is not None:
-                        tol, source = ERROR_BAR_GAIN * REL_ENERGY * abs(e), "arithmetic"
-                elif column == "virial_ratio":
-                    if _abs(x) is not None:
-                        tol, source = REL_FIRST_ORDER * abs(x), "arithmetic"
-                if tol is None:
-                    scale = max(_abs(x) or 0.0, abs(e) if e is not None else 0.0)
-                    tol, source = REL_ENERGY * scale, "arithmetic"
-                tols.append((tol, source))
-            table_out[column] = tols
-        out[table] = table_out
+        rows = _Rows(columns)
+        out[table] = {column: [_tolerance(rows, column, i, x) for i, x in enumerate(values)]
+                      for column, values in columns.items()}
     return out
 
 
@@ -299,6 +301,21 @@ def _same_bits(x, y) -> bool:
     if x is None or y is None:
         return x is None and y is None
     return float(x).hex() == float(y).hex()
+
+
+def bit_differences(old: dict, new: dict) -> list[str]:
+    """Differences between two ``numbers`` records (empty list: identical bit for bit)."""
+    diffs = []
+    for table in sorted(set(old) | set(new)):
+        a, b = old.get(table, {}), new.get(table, {})
+        for column in sorted(set(a) | set(b)):
+            va, vb = a.get(column), b.get(column)
+            if va is None or vb is None or len(va) != len(vb):
+                diffs.append(f"{table}.{column}: present in only one run or of different length")
+                continue
+            diffs.extend(f"{table}.{column}[{i}]: {x!r} then {y!r}"
+                         for i, (x, y) in enumerate(zip(va, vb)) if not _same_bits(x, y))
+    return diffs
 
 
 def compare_within(old: dict, new: dict, mode: str = "tolerance") -> dict:
@@ -405,17 +422,15 @@ def _floats_close(a, b, rel: float, strict: bool, path: str, out: list) -> None:
         out.append(f"{path}: {a!r} recorded, {b!r} in the re-run")
 
 
-def compare_computations(recorded, config: dict, rerun: dict, mode: str = "tolerance") -> dict:
-    """Check the recorded solves against the configuration and the re-run.
+def compare_computations(recorded, expected: dict, rerun: dict, mode: str = "tolerance") -> dict:
+    """Check the recorded solves against the tasks the configuration asks for and the re-run.
 
+    ``expected`` is :func:`twoel.report.build.report_tasks` of the recorded configuration.
     Returns ``{"status", "records", "mismatches": [lines]}``.
     """
-    from twoel.report.build import normalize_config, report_tasks
-
     if recorded is None:
         return {"status": NOT_RECORDED, "records": 0, "mismatches": []}
     strict = mode == "strict"
-    expected = report_tasks(normalize_config(config))
     mismatches = []
     records = 0
     for section in sorted(set(recorded) | set(expected)):
@@ -475,11 +490,8 @@ def compare_digests(data: dict) -> dict:
     return {"status": "match" if not mismatches else "mismatch", "mismatches": mismatches}
 
 
-def compare_packages(recorded) -> dict:
+def compare_packages(recorded, now: dict) -> dict:
     """``{package: [recorded, now]}`` for every package whose version changed (information)."""
-    from twoel.report.build import package_versions
-
-    now = package_versions()
     return {k: [v, now.get(k)] for k, v in (recorded or {}).items() if now.get(k) != v}
 
 
@@ -516,29 +528,32 @@ def compare_environment(data: dict) -> list[str]:
 
 # --------------------------------------------------------------------------- verdict
 
-def check_reproduction(data: dict, rerun: dict, mode: str = "tolerance") -> dict:
+def check_reproduction(data: dict, rerun: dict, mode: str = "tolerance", *, expected_tasks: dict,
+                       packages_now: dict) -> dict:
     """Compare a provenance record ``data`` with the provenance of its re-run ``rerun``.
+
+    ``expected_tasks``: the solves the recorded configuration asks for
+    (:func:`twoel.report.build.report_tasks`); ``packages_now``: this installation's versions
+    (:func:`twoel.report.build.package_versions`).
 
     Returns the ``reproduction`` dict of :class:`twoel.report.build.ReportResult`: the old keys
     ``identical`` (every number bit for bit), ``compared``, ``differences`` (the numbers that
     differ in any bit) and ``package_changes``, plus ``reproduced``, ``mode``, ``beyond``,
     ``largest``, ``computations``, ``constants``, ``digests``, ``environment`` and ``verdict``.
     """
-    from twoel.report.build import compare_numbers
-
     if mode not in MODES:
         raise InputError(f"reproduction mode must be one of {', '.join(MODES)}, got {mode!r}")
     numbers = compare_within(data["numbers"], rerun["numbers"], mode)
-    computations = compare_computations(data.get("computations"), data["config"],
+    computations = compare_computations(data.get("computations"), expected_tasks,
                                         rerun.get("computations", {}), mode)
     constants_check = compare_constants(data.get("constants"))
     digests = compare_digests(data)
     reproduced = (not numbers["beyond"] and computations["status"] != "mismatch"
                   and constants_check["status"] != "differ" and digests["status"] != "mismatch")
-    differences = compare_numbers(data["numbers"], rerun["numbers"])
+    differences = bit_differences(data["numbers"], rerun["numbers"])
     check = {
         "identical": not differences, "compared": numbers["compared"], "differences": differences,
-        "package_changes": compare_packages(data.get("packages")),
+        "package_changes": compare_packages(data.get("packages"), packages_now),
         "reproduced": reproduced, "mode": mode, "beyond": numbers["beyond"],
         "largest": list(numbers["largest"]) if numbers["largest"] else None,
         "bit_differences": numbers["bit_differences"],
