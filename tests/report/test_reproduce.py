@@ -183,3 +183,13 @@ def test_committed_demo_reproduces(tmp_path, threads):
     done = _cli("--from-provenance", provenance, "--out", tmp_path / "again", env=env)
     assert done.returncode == 0, done.stdout + done.stderr
     assert "reproduced within tolerance" in done.stdout
+
+
+def test_error_bar_tolerance_is_float64_not_the_energy_uncertainty():
+    numbers = {"levels": {"energy_hartree": [-2.9], "error_bar_hartree": [1e-9]}}
+    tol = reproduce.number_tolerances(numbers)["levels"]["error_bar_hartree"][0]
+    assert tol == (reproduce.ERROR_BAR_GAIN * 1e-12 * 2.9, "arithmetic")
+    changed = {"levels": {"energy_hartree": [-2.9 + 1e-10], "error_bar_hartree": [1e-9 + 1e-13]}}
+    check = reproduce.compare_within(numbers, changed)
+    assert check["beyond"] == [] and check["within_uncertainty_only"] == 1      # the energy only
+    assert check["largest"][1] == "levels.energy_hartree[0]"

@@ -275,7 +275,8 @@ def _tolerance(rows: _Rows, column: str, i: int, x) -> tuple:
         return rows.ref[i]
     if column == "energy_hartree":
         return rows.tE[i]
-    source = rows.tE[i][1] if i < len(rows.tE) and column != "virial_ratio" else "arithmetic"
+    inherits = i < len(rows.tE) and column not in ("virial_ratio", "error_bar_hartree")
+    source = rows.tE[i][1] if inherits else "arithmetic"
     tol = _derived_tolerance(rows, column, i, x)
     if tol is None:
         e = rows.energy(i)
@@ -352,7 +353,8 @@ def compare_within(old: dict, new: dict, mode: str = "tolerance") -> dict:
                             ratio = math.inf
                         else:
                             ratio = d / tol
-                            if source == "uncertainty" and d > REL_ENERGY * max(abs(x), abs(y)) and ratio <= 1:
+                            if (source == "uncertainty" and column in UNCERTAINTY_COLUMNS
+                                    and d > REL_ENERGY * max(abs(x), abs(y)) and ratio <= 1):
                                 within_u += 1
                     if ratio > 1:
                         shown = "bit for bit" if (mode == "strict" or not tol) else f"tolerance {tol:.3g}"
