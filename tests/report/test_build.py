@@ -1,4 +1,4 @@
-"""Report folders: contents, provenance re-runs bit for bit, overwrite refusal, atomic writes,
+"""Report folders: contents, provenance re-runs bit for bit (--strict), overwrite refusal, atomic writes,
 and parallel sweeps equal to serial ones."""
 
 import csv
@@ -78,10 +78,10 @@ def test_provenance_records_everything(small_report):
 def test_rerun_from_provenance_is_bit_for_bit(small_report, tmp_path):
     out, _ = small_report
     rerun = subprocess.run([sys.executable, "-m", "twoel", "report", "--quiet", "--from-provenance",
-                            str(out / "provenance.json"), "--out", str(tmp_path / "again"), "--jobs", "2"],
-                           capture_output=True, text=True, cwd=ROOT)
-    assert rerun.returncode == 0, rerun.stderr
-    assert "bit for bit" in rerun.stdout
+                            str(out / "provenance.json"), "--out", str(tmp_path / "again"), "--jobs", "2",
+                            "--strict"], capture_output=True, text=True, cwd=ROOT)
+    assert rerun.returncode == 0, rerun.stdout + rerun.stderr
+    assert rerun.stdout.strip().splitlines()[-1].startswith("reproduced all") and "bit for bit" in rerun.stdout
     for table in ("series", "convergence", "levels"):
         assert (tmp_path / "again" / "tables" / f"{table}.csv").read_bytes() == \
                (out / "tables" / f"{table}.csv").read_bytes()
@@ -100,10 +100,15 @@ def test_a_changed_number_is_reported(small_report, tmp_path):
     diffs = build.compare_numbers(numbers, changed)
     assert len(diffs) == 1 and diffs[0].startswith("series.energy_hartree[0]")
     data["numbers"] = changed
+    data.pop("digests")             # else the edit itself is reported (see test_reproduce.py)
     doctored = tmp_path / "provenance.json"
     doctored.write_text(json.dumps(data))
     result = build.rebuild_from_provenance(doctored, tmp_path / "again")
     assert result.reproduction["identical"] is False and len(result.reproduction["differences"]) == 1
+    # 2^-50 relative is within the 1e-12 float64 tolerance of an energy, but not bit for bit
+    assert result.reproduction["reproduced"] is True and result.reproduction["mode"] == "tolerance"
+    strict = build.rebuild_from_provenance(doctored, tmp_path / "strict", mode="strict")
+    assert strict.reproduction["reproduced"] is False and len(strict.reproduction["beyond"]) == 1
 
 
 def test_overwrite_refusal(small_report, tmp_path):

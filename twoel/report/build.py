@@ -13,7 +13,10 @@ a folder::
 The folder is built in a temporary sibling and renamed into place at the end
 (:func:`twoel.io.atomic_directory`), so an interrupted build leaves nothing behind, and an
 existing folder is refused unless ``overwrite=True``.  :func:`rebuild_from_provenance` re-runs
-the configuration stored in a provenance file and compares every number bit for bit.
+the configuration stored in a provenance file and checks every block of it with
+:mod:`twoel.report.reproduce`: each number within its own tolerance (or bit for bit in strict
+mode), the recorded computations, the CODATA constants, and, as information, the versions,
+platform, BLAS library and thread settings.
 
 This module orchestrates; the numbers come from :mod:`twoel.analysis.sweep`, the text from
 :mod:`twoel.report.tables`, the figures from :mod:`twoel.report.plots`.
@@ -238,7 +241,8 @@ class ReportResult(Result):
         name carries (``energy_hartree`` in Eh, ``ionization_energy_cm1`` in cm⁻¹ ...).
     reproduction : dict or None
         After :func:`rebuild_from_provenance`: ``{"identical", "compared", "differences",
-        "package_changes"}``.
+        "package_changes"}`` and the keys of :func:`twoel.report.reproduce.check_reproduction`
+        (``"reproduced"``, ``"mode"``, ``"verdict"`` ...).
     notes : tuple of str
         The notes shown on the index page.
     """
@@ -564,23 +568,35 @@ def _reproduce_section(page: _Page, out: Path) -> None:
     page.heading(2, "Reproduce")
     page.paragraph("provenance.json holds the package versions, the CODATA constants, this "
                    "report's configuration, every parameter and basis definition, and every "
-                   "number above. Re-run it and compare every number bit for bit with:")
+                   "number above. Re-run it and check every number within its own tolerance "
+                   "(add --strict for bit for bit) and every recorded block with:")
     page.code(f"twoel report --from-provenance {out.as_posix()}/provenance.json --out {out.name}-rerun")
 
 
 def _provenance(config: dict, sections: dict, by_section: dict, numbers: dict) -> dict:
-    """The provenance record: versions, constants, configuration, every solve and every number."""
-    return {
+    """The provenance record: versions, constants, configuration, every solve and every number.
+
+    ``digests`` holds the SHA-256 of each block as written (an edit after the build shows).
+    """
+    from twoel.report.reproduce import block_digests, environment
+
+    record = {
         "format": PROVENANCE_FORMAT, "format_version": PROVENANCE_VERSION,
         "generator": f"twoel {__version__} (twoel report)",
         "packages": package_versions(), "platform": platform.platform(),
         "python_implementation": sys.implementation.name,
+        "environment": environment(),
         "constants": constants.provenance(),
         "config": config,
         "computations": {name: [_result_record(t, r) for t, r in zip(sections[name], by_section[name])]
                          for name in sections},
         "numbers": numbers,
     }
+    from twoel.io import dumps_json
+
+    record = json.loads(dumps_json(record))     # the record as it will be read back
+    record["digests"] = block_digests(record)
+    return record
 
 
 def _write_sections(folder: Path, config: dict, by_section: dict, page: _Page):
@@ -678,6 +694,9 @@ def read_provenance(path) -> dict:
     if data.get("format_version") != PROVENANCE_VERSION:
         raise UnsupportedFormat(f"provenance format version {data.get('format_version')!r} is not "
                                 f"supported (this twoel reads version {PROVENANCE_VERSION})")
+    from twoel.report.reproduce import check_structure
+
+    check_structure(data, repr(str(path)))
     return data
 
 
@@ -687,37 +706,35 @@ class UnsupportedFormat(InputError):
 
 def compare_numbers(old: dict, new: dict) -> list[str]:
     """Differences between two ``numbers`` records (empty list: identical bit for bit)."""
-    diffs = []
-    for table in sorted(set(old) | set(new)):
-        a, b = old.get(table, {}), new.get(table, {})
-        for column in sorted(set(a) | set(b)):
-            va, vb = a.get(column), b.get(column)
-            if va is None or vb is None or len(va) != len(vb):
-                diffs.append(f"{table}.{column}: present in only one run or of different length")
-                continue
-            for i, (x, y) in enumerate(zip(va, vb)):
-                same = (x is None and y is None) or (x is not None and y is not None and
-                                                     float(x).hex() == float(y).hex())
-                if not same:
-                    diffs.append(f"{table}.{column}[{i}]: {x!r} then {y!r}")
-    return diffs
+    from twoel.report.reproduce import bit_differences
+
+    return bit_differences(old, new)
 
 
 def rebuild_from_provenance(path, out, *, overwrite: bool = False, html: bool = False,
-                            jobs: int | None = 1, progress=None) -> ReportResult:
-    """Re-run the report recorded in a provenance file and compare every number bit for bit.
+                            jobs: int | None = 1, progress=None, mode: str = "tolerance") -> ReportResult:
+    """Re-run the report recorded in a provenance file and check every block of the record.
 
-    The returned :class:`ReportResult` has ``reproduction = {"identical": bool, "compared": n,
-    "differences": [...], "package_changes": {...}}``.
+    Parameters
+    ----------
+    mode : {"tolerance", "strict"}
+        ``"tolerance"``: each number within its own tolerance (rules in
+        :mod:`twoel.report.reproduce`); ``"strict"``: every number bit for bit.
+
+    The returned :class:`ReportResult` has ``reproduction`` from
+    :func:`twoel.report.reproduce.check_reproduction`: ``{"reproduced", "mode", "identical",
+    "compared", "differences", "package_changes", "beyond", "largest", "computations",
+    "constants", "digests", "environment", "verdict"}``.
     """
+    from twoel.report.reproduce import MODES, check_reproduction
+
+    if mode not in MODES:
+        raise InputError(f"reproduction mode must be one of {', '.join(MODES)}, got {mode!r}")
     data = read_provenance(path)
     result = build_report(data["config"], out, overwrite=overwrite, html=html, jobs=jobs,
                           progress=progress)
-    old = data.get("numbers", {})
-    diffs = compare_numbers(old, result.numbers)
-    compared = sum(len(v) for cols in result.numbers.values() for v in cols.values())
-    now = package_versions()
-    changes = {k: [v, now.get(k)] for k, v in data.get("packages", {}).items() if now.get(k) != v}
-    reproduction = {"identical": not diffs, "compared": compared, "differences": diffs,
-                    "package_changes": changes}
+    rerun = json.loads((Path(result.path) / "provenance.json").read_text(encoding="utf-8"))
+    reproduction = check_reproduction(data, rerun, mode,
+                                      expected_tasks=report_tasks(normalize_config(data["config"])),
+                                      packages_now=package_versions())
     return ReportResult(result.path, result.files, result.numbers, reproduction, result.notes)
