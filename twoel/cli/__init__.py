@@ -3,6 +3,9 @@
 Each command lives in its own module with ``NAME``, ``HELP``, ``add_parser(subparsers)`` and a
 ``run(args) -> int`` set as the parser default.  Errors of the library (:class:`TwoelError`)
 become one line on stderr and exit status 2; nothing prints a traceback unless ``--debug``.
+
+Exit status: 0 success; 1 a check that ran and failed (``report --from-provenance``: not
+reproduced); 2 bad input or an impossible request; 3 internal error (a bug); 130 interrupted.
 """
 
 from __future__ import annotations
@@ -24,7 +27,9 @@ def build_parser() -> TwoelArgumentParser:
     parser = TwoelArgumentParser(
         prog="twoel",
         description="Variational energies of two-electron atoms and helium-like ions "
-                    "(Hartree atomic units inside; CODATA conversions at the edges).")
+                    "(Hartree atomic units inside; CODATA conversions at the edges).",
+        epilog="exit status: 0 success; 1 a check that failed (report --from-provenance); "
+               "2 bad input; 3 internal error; 130 interrupted")
     parser.add_argument("--version", action="version", version=f"twoel {__version__}")
     parser.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
     subparsers = parser.add_subparsers(title="commands", metavar="COMMAND", parser_class=TwoelArgumentParser)
