@@ -241,7 +241,7 @@ def _matrices_in_groups(basis, ops: dict) -> dict:
 HEAVY = ("inv_r1_squared", "inv_r1_r2", "inv_r1_r12", "inv_r12_squared", "p1_dot_p2",
          "p1sq_p2sq", "gradsq_over_r1", "gradsq_over_r12")
 #: primitives in one block-pair evaluation (pairs per call ~ (2 x this)²/2)
-BLOCK_PRIMITIVES = 100
+BLOCK_PRIMITIVES = 200
 
 
 def _sub_basis(basis, index: np.ndarray):
@@ -249,7 +249,7 @@ def _sub_basis(basis, index: np.ndarray):
     from twoel.basis.p_basis import PBasis
 
     if isinstance(basis, PBasis):
-        return PBasis(basis.exponents[index], sign=basis.sign)
+        return PBasis(basis.exponents[index], sign=basis.sign, powers=basis.powers[index])
     return CorrelatedBasis(basis.powers[index], basis.exponents[index], sign=basis.sign)
 
 
