@@ -35,20 +35,44 @@ def add_parser(subparsers) -> None:
     p.add_argument("--hylleraas-preset", choices=("fast", "default"), default=None,
                    help="use the fixed two-scale Hylleraas basis of the corrections instead "
                         "(1^1S, 2^1S, 2^3S; its delta functions converge to ~1e-8)")
+    p.add_argument("--no-uncertainties", action="store_true",
+                   help="one basis only, no uncertainties (the earlier output; faster)")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=run)
 
 
-def summary_text(result, values) -> str:
+def _value_text(key, value, bars) -> str:
+    """``value(uncertainty)`` with the digits the bar supports; flagged values are not printed."""
+    from twoel.report.numbers import format_uncertain, group_digits
+
+    bar = None if bars is None else bars.get(key)
+    if value is None:
+        return "—"
+    if bar is None:
+        return f"{value:.12g}"
+    if bar.uncertainty == 0:
+        return "0 (exact)" if bar.value == 0 else f"{bar.value!r} (exact)"
+    if not bar.reliable and "negative" in bar.note:
+        return "flagged: negative beyond its uncertainty (not a value)"
+    text = group_digits(format_uncertain(bar.value, bar.uncertainty))
+    return text if bar.reliable else text + " [unreliable]"
+
+
+def summary_text(result, values, bars=None) -> str:
     lines = [f"{result.ion} {result.state}  (Z = {result.Z:g}, family {result.family}, "
              f"{result.n_terms} functions); per electron, atomic units",
              f"energy: {result.energy_hartree!r} Eh"]
     for key, label, unit in _ROWS:
-        value = getattr(values, key)
-        text = "—" if value is None else f"{value:.12g}"
+        text = _value_text(key, getattr(values, key), bars)
         lines.append(f"  {label:36s} {text} {unit}".rstrip())
     lines.append("note: direct delta values converge slowly; the regularized (Drachman 1981) ones are "
                  "the better estimates")
+    if bars is not None:
+        lines.append("note: uncertainties from the nested bases (last digits in parentheses); "
+                     "[unreliable]: irregular sequence, see the JSON notes")
+        for key, bar in bars.items():
+            if bar.uncertainty == 0 or not bar.reliable:
+                lines.append(f"note: {key}: {bar.note}")
     for note in values.notes:
         lines.append(f"note: {note}")
     return "\n".join(lines) + "\n"
@@ -79,16 +103,25 @@ def run(args: argparse.Namespace) -> int:
     from twoel.properties.expectation import expectation_values
     from twoel.analysis.transitions import solve_state
 
+    bars, sizes = None, None
     if args.hylleraas_preset:
         result, values = _preset_state(args.Z, args.state, args.hylleraas_preset)
-    else:
+    elif args.no_uncertainties:
         result = solve_state(args.Z, args.state, size=args.size, family=args.family)
         values = expectation_values(result)
+    else:
+        from twoel.properties.nested import properties_with_uncertainties
+
+        nested = properties_with_uncertainties(args.Z, args.state, size=args.size, family=args.family)
+        result, values, bars, sizes = nested.record, nested.values, nested.bars, nested.sizes
     if args.json:
         record = {"Z": result.Z, "ion": result.ion, "state": result.state, "family": result.family,
                   "size": result.size, "n_terms": result.n_terms,
                   "energy_hartree": result.energy_hartree, "expectation_values": values.to_dict()}
+        if bars is not None:
+            record["uncertainties"] = {key: bar.to_dict() for key, bar in bars.items()}
+            record["nested_sizes"] = list(sizes)
         print_json(record)
     else:
-        sys.stdout.write(summary_text(result, values))
+        sys.stdout.write(summary_text(result, values, bars))
     return 0

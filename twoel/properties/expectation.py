@@ -222,6 +222,71 @@ def _correlated_state(obj) -> tuple[object, np.ndarray, str | None]:
     return basis, c, state
 
 
+#: operators evaluated together by the pair evaluator (its temporaries grow with the number of
+#: operators of one call; a few at a time keep a default run's memory low)
+OPERATOR_GROUP = 2
+
+
+def _matrices_in_groups(basis, ops: dict) -> dict:
+    """:func:`operator_matrices` of ``ops``, :data:`OPERATOR_GROUP` operators per call."""
+    names = list(ops)
+    mats: dict = {}
+    for start in range(0, len(names), OPERATOR_GROUP):
+        mats.update(operator_matrices(basis, {k: ops[k] for k in names[start:start + OPERATOR_GROUP]}))
+    return mats
+
+
+#: operators whose matrices are only contracted with the vector (never needed whole): their
+#: expectation values are summed over blocks of primitives (bounded memory)
+HEAVY = ("inv_r1_squared", "inv_r1_r2", "inv_r1_r12", "inv_r12_squared", "p1_dot_p2",
+         "p1sq_p2sq", "gradsq_over_r1", "gradsq_over_r12")
+#: primitives in one block-pair evaluation (pairs per call ~ (2 x this)²/2)
+BLOCK_PRIMITIVES = 200
+
+
+def _sub_basis(basis, index: np.ndarray):
+    """The primitives ``index`` of an uncontracted S or P basis as a basis of their own."""
+    from twoel.basis.p_basis import PBasis
+
+    if isinstance(basis, PBasis):
+        return PBasis(basis.exponents[index], sign=basis.sign, powers=basis.powers[index])
+    return CorrelatedBasis(basis.powers[index], basis.exponents[index], sign=basis.sign)
+
+
+def _blocked_values(basis, d: np.ndarray, ops: dict, probe: bool = False) -> dict:
+    """``d^T M d`` (primitive coefficients ``d``) of each operator, from blocks of primitives.
+
+    The primitives are split into groups of :data:`BLOCK_PRIMITIVES`; the basis made of two
+    groups gives their diagonal and cross blocks, so memory stays that of a ~200-function
+    evaluation whatever the size.  ``probe``: evaluate one tiny block only (does the basis
+    support the operators?).
+    """
+    P = basis.powers.shape[0]
+    if probe:
+        operator_matrices(_sub_basis(basis, np.arange(min(P, 2))), ops)
+        return {}
+    groups = [np.arange(s, min(s + BLOCK_PRIMITIVES, P)) for s in range(0, P, BLOCK_PRIMITIVES)]
+    out = {name: 0.0 for name in ops}
+    if len(groups) == 1:
+        mats = operator_matrices(_sub_basis(basis, groups[0]), ops)
+        return {name: float(d @ m @ d) for name, m in mats.items()}
+    for i in range(len(groups)):
+        for j in range(i + 1, len(groups)):
+            index = np.concatenate([groups[i], groups[j]])
+            mats = operator_matrices(_sub_basis(basis, index), ops)
+            n_i = groups[i].shape[0]
+            di, dj = d[groups[i]], d[groups[j]]
+            for name, m in mats.items():
+                total = 2.0 * float(di @ m[:n_i, n_i:] @ dj)
+                if j == i + 1 and i == 0:
+                    total += float(di @ m[:n_i, :n_i] @ di)
+                if i == 0 and j >= 1:
+                    # the diagonal block of group j is taken from its first pairing (with group 0)
+                    total += float(dj @ m[n_i:, n_i:] @ dj)
+                out[name] += total
+    return out
+
+
 def _operator_averages(basis, c: np.ndarray, Z: float, repulsion, notes: list):
     """Operator matrices, their normalized expectation values, the norm and whether ``⟨p1⁴⟩`` can be had.
 
@@ -230,15 +295,19 @@ def _operator_averages(basis, c: np.ndarray, Z: float, repulsion, notes: list):
     mats, averages, norm, p4_ok
     """
     ops = _operators(Z, float(repulsion))
+    extra = {name: ops.pop(name) for name in HEAVY}
     p4_ok = True
     try:
-        mats = operator_matrices(basis, ops)
+        mats = _matrices_in_groups(basis, ops)
+        _blocked_values(basis, np.zeros(basis.powers.shape[0]), {"p1sq_p2sq": extra["p1sq_p2sq"]}, probe=True)
     except InputError:
-        ops.pop("p1sq_p2sq")
-        mats = operator_matrices(basis, ops)
+        extra.pop("p1sq_p2sq")
+        mats = _matrices_in_groups(basis, ops)
         p4_ok = False
         notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
     values = {name: float(c @ m @ c) for name, m in mats.items()}
+    heavy = {name: spec for name, spec in extra.items() if name not in mats}
+    values.update(_blocked_values(basis, _primitive_coefficients(basis, c), heavy))
     norm = values["overlap"]
     if not norm > 0:
         raise InputError("the wave function has zero norm")

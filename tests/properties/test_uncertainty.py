@@ -1,0 +1,70 @@
+"""Uncertainties of expectation values from nested bases (twoel.properties.uncertainty, .nested)."""
+
+import json
+
+import pytest
+
+from twoel.cli import main
+from twoel.properties.uncertainty import check_nonnegative, sequence_bar
+
+#: He 1¹S, per electron: G. W. F. Drake, Springer Handbook of Atomic, Molecular and Optical
+#: Physics (2006), ch. 11, tables (from memory)
+PUBLISHED = {"inv_r1_squared": 6.017408867, "delta_r1_regularized": 1.810429318,
+             "delta_r12_regularized": 0.106345371}
+
+
+@pytest.mark.parametrize("q", [0.4, 0.6, 0.75])
+def test_geometric_sequence_bar_covers_its_known_limit(q):
+    """v_k = L + A q^k has the closed-form limit L: the bar of the last value covers |v - L|."""
+    L, A = 1.5, 3e-6
+    values = [L + A * q**k for k in range(3)]
+    bar = sequence_bar(values)
+    assert bar.reliable and abs(values[-1] - L) <= bar.uncertainty <= 10 * abs(values[-1] - L)
+
+
+def test_growing_steps_are_flagged():
+    """A value that moves more as the basis grows is not converging: reliable is false."""
+    bar = sequence_bar([1.0, 1.0 + 1e-8, 1.0 - 5e-8])
+    assert not bar.reliable and bar.uncertainty >= 5e-8
+
+
+def test_negative_delta_beyond_its_bar_is_flagged():
+    """A δ expectation is an integral of |Ψ|² (>= 0, exact): negative beyond the bar is flagged."""
+    bar = check_nonnegative(sequence_bar([-3.0e-9, -2.6e-9, -2.5e-9]), "delta_r12")
+    assert not bar.reliable and "negative" in bar.note
+    inside = check_nonnegative(sequence_bar([2e-9, -1e-9, 5e-10]), "delta_r12")
+    assert inside.reliable
+
+
+def test_triplet_delta_r12_is_exactly_zero_in_the_command(capsys):
+    """2³S: Ψ(r, r) = 0 by antisymmetry, so ⟨δ³(r12)⟩ = 0 exactly, with bar 0; ⟨δ³(r1)⟩ > 0."""
+    assert main(["properties", "--Z", "2", "--state", "2^3S", "--family", "exponential",
+                 "--size", "60", "--json"]) == 0
+    record = json.loads(capsys.readouterr().out)
+    u = record["uncertainties"]
+    assert u["delta_r12_regularized"]["value"] == 0 and u["delta_r12_regularized"]["uncertainty"] == 0
+    assert u["delta_r12"]["value"] == 0
+    assert u["delta_r1_regularized"]["value"] > u["delta_r1_regularized"]["uncertainty"]
+
+
+@pytest.fixture(scope="module")
+def ground_default():
+    from twoel.properties.nested import properties_with_uncertainties
+
+    return properties_with_uncertainties(2, "1^1S")
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("name", sorted(PUBLISHED))
+def test_default_bars_cover_the_published_values(ground_default, name):
+    """The bar of the default run covers the true error against Drake (2006, from memory)."""
+    bar = ground_default.bars[name]
+    assert abs(bar.value - PUBLISHED[name]) <= bar.uncertainty
+
+
+@pytest.mark.slow
+@pytest.mark.xfail(strict=True, reason="not met: the float64 eigenvector of the two-scale basis "
+                   "limits <1/r1^2> and the regularized delta(r1) to ~1.3e-8 relative (measured)")
+def test_default_values_within_1e8_relative(ground_default):
+    for name, ref in PUBLISHED.items():
+        assert ground_default.bars[name].value == pytest.approx(ref, rel=1e-8), name
