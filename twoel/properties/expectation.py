@@ -241,7 +241,7 @@ def _matrices_in_groups(basis, ops: dict) -> dict:
 HEAVY = ("inv_r1_squared", "inv_r1_r2", "inv_r1_r12", "inv_r12_squared", "p1_dot_p2",
          "p1sq_p2sq", "gradsq_over_r1", "gradsq_over_r12")
 #: primitives in one block-pair evaluation (pairs per call ~ (2 x this)²/2)
-BLOCK_PRIMITIVES = 200
+BLOCK_PRIMITIVES = 120
 
 
 def _sub_basis(basis, index: np.ndarray):
@@ -257,7 +257,7 @@ def _blocked_values(basis, d: np.ndarray, ops: dict, probe: bool = False) -> dic
     """``d^T M d`` (primitive coefficients ``d``) of each operator, from blocks of primitives.
 
     The primitives are split into groups of :data:`BLOCK_PRIMITIVES`; the basis made of two
-    groups gives their diagonal and cross blocks, so memory stays that of a ~200-function
+    groups gives their diagonal and cross blocks, so memory stays that of a BLOCK_PRIMITIVES-function
     evaluation whatever the size.  ``probe``: evaluate one tiny block only (does the basis
     support the operators?).
     """
