@@ -31,13 +31,13 @@ def test_2_3p_energy_is_a_variational_upper_bound(helium_3p):
 
 
 def test_2_3p_fine_structure_intervals(helium_3p):
-    """First-order Breit–Pauli omits α³ terms (~1e-4 relative for He); measured residuals
-    +3e-5 (J=0-1) and +2.9e-4 (J=1-2)."""
+    """First-order Breit–Pauli omits α³ terms of about 1 MHz (the stated accuracy); measured
+    residuals +0.77 MHz (J=0-1, +2.6e-5) and +0.67 MHz (J=1-2, +2.9e-4)."""
     basis, c, energy = helium_3p
     fs = fine_structure(basis, c, 2.0, energy, 32)
     nu01, nu12 = hartree_to(fs.interval_01_hartree, "mhz"), hartree_to(fs.interval_12_hartree, "mhz")
-    assert nu01 == pytest.approx(NU01_MHZ, rel=1e-4)
-    assert nu12 == pytest.approx(NU12_MHZ, rel=5e-4)
+    assert nu01 == pytest.approx(NU01_MHZ, abs=1.0)
+    assert nu12 == pytest.approx(NU12_MHZ, abs=1.0)
     # the anomalous magnetic moment factor is needed: without it the J=1-2 interval is worse
     plain = fine_structure(basis, c, 2.0, energy, 32, anomalous=False)
     assert abs(hartree_to(plain.interval_12_hartree, "mhz") - NU12_MHZ) > 10 * abs(nu12 - NU12_MHZ)

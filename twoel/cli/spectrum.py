@@ -64,6 +64,20 @@ def _details(d: dict) -> list[str]:
     return lines
 
 
+def _reference_label(match) -> str:
+    if not match:
+        return "reference"
+    head = f"reference ({match['isotope']} {match['state']} J={match['J']}"
+    if match["conversion"]:
+        return head + f", converted to {match['conversion']['to']})"
+    return head + ")"
+
+
+def _digits(u) -> str:
+    """The uncertainty of a ``+.4f`` residual in its last digits (``±`` form if wider)."""
+    return "?" if u is None else f"±{u:.2g}"
+
+
 def summary_text(d: dict, details: bool = False) -> str:
     from twoel.units import convert_energy
 
@@ -74,17 +88,28 @@ def summary_text(d: dict, details: bool = False) -> str:
         lines.append(f"{_LABELS.get(key, key):<50} {value:>18.6f} {d['contributions_ev'][key]:>16.9f}")
     lines.append(f"{'ionization energy (total)':<50} {d['ionization_energy_cm1']:>18.6f} "
                  f"{d['ionization_energy_ev']:>16.9f}")
+    if d.get("ionization_energy_uncertainty_cm1") is not None:
+        lines.append(f"{'ionization energy with uncertainty (cm-1)':<50} {d['ionization_energy_concise_cm1']:>18}")
+    match = d.get("reference_match")
     if d["reference_cm1"] is not None:
-        lines.append(f"{'reference':<50} {d['reference_cm1']:>18.6f} "
+        lines.append(f"{_reference_label(match):<50} {d['reference_cm1']:>18.6f} "
                      f"{convert_energy(d['reference_cm1'], 'cm-1', 'ev'):>16.9f}")
         lines.append(f"  source: {d['reference_source']}")
+        if match and match["conversion"]:
+            c = match["conversion"]
+            lines.append(f"  converted from {c['from_isotope']} ({match['raw_value_cm1']:.6f} cm-1): {c['model']}; "
+                         f"shift {c['shift_cm1']:+.4f} cm-1, conversion uncertainty {c['uncertainty_cm1']:.1e} cm-1")
         lines.append(f"{'residual (total - reference)':<50} {d['residual_cm1']:>18.6f}")
+        if d.get("residual_concise_cm1"):
+            lines.append(f"{'residual with combined uncertainty (cm-1)':<50} {d['residual_concise_cm1']:>18}")
         lines.append(f"{'residual, nonrelativistic infinite mass':<50} {d['residual_nonrelativistic_cm1']:>18.6f}")
+    elif match is not None:
+        lines.append(f"reference: not compared: {match['reason']} ({match['source']})")
     else:
         lines.append("reference: none tabulated")
     if d["nist_cm1"] is not None and d["nist_cm1"] != d["reference_cm1"]:
-        lines.append(f"{'NIST ASD (via mendeleev)':<50} {d['nist_cm1']:>18.6f}   residual "
-                     f"{d['residual_nist_cm1']:+.4f}")
+        lines.append(f"{'NIST ASD (data/nist_ionization_energies.csv)':<50} {d['nist_cm1']:>18.6f}   residual "
+                     f"{d['residual_nist_cm1']:+.4f} {_digits(d['residual_nist_uncertainty_cm1'])}")
     if details:
         lines += _details(d)
     lines.append(f"Bethe logarithm ln(k0/R_inf) = {d['bethe_log']['value']:.9f}  [{d['bethe_log']['source']}]")

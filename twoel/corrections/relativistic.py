@@ -38,10 +38,9 @@ from twoel.errors import UnsupportedError
 from twoel.results import Result
 from twoel.system import State
 
-#: Zα above which the spectrum output cautions that first-order Breit–Pauli is inadequate.
-#: The omitted α⁴ relativistic terms are ~(Zα)² of the α² correction: 0.25 % at Zα = 0.05
-#: (Z ≈ 7), where they exceed the α³ QED uncertainty of these tables; beyond it fully
-#: relativistic (Dirac–Coulomb–Breit with all-order QED) methods are needed.
+#: Zα above which the fine-structure output cautions that first-order Breit–Pauli is
+#: inadequate.  (The ionization-energy cautions use the omitted-term estimate ``0.2 α⁴Z⁶`` Eh of
+#: :mod:`twoel.corrections.uncertainty` instead, which exceeds 1 cm⁻¹ from Z = 5 on.)
 CAUTION_Z_ALPHA = 0.05
 
 
