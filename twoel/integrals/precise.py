@@ -104,8 +104,8 @@ def _exact_scale(exponents: np.ndarray) -> int:
     return q
 
 
-def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
-    """Fixed-point integer matrices of a zero-power basis.
+def fixed_point_entries(exponents: np.ndarray, sign: int, bits: int, rows, cols):
+    """Fixed-point integers of the entries ``(rows[n], cols[n])`` of the zero-power matrices.
 
     Parameters
     ----------
@@ -113,10 +113,12 @@ def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
     sign : int
     bits : int
         Relative precision wanted for every entry (bits).
+    rows, cols : array_like of int
+        The entries wanted.
 
     Returns
     -------
-    (dict name -> list of lists of int, P) with ``entry / (16π²) = int · 2^-P``.
+    (dict name -> object array of int, P) with ``entry / (16π²) = int · 2^-P``.
 
     Notes
     -----
@@ -135,7 +137,7 @@ def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
     largest = max(2.0 * float(np.max(exponents[:, :2].sum(axis=1))),
                   2.0 * float(np.max(exponents[:, 1:].sum(axis=1))), 1.0)
     P = int(bits) + 7 * int(math.ceil(math.log2(largest))) + 16
-    rows, cols = np.triu_indices(N)
+    rows, cols = np.asarray(rows), np.asarray(cols)
     total = {}
     one = 1 << (P + Q)
     for exchanged, weight in ((False, 1), (True, sign)):
@@ -148,6 +150,20 @@ def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
         values = {"overlap": ov, "nuclear": nu, "repulsion": re, "kinetic": kinetic}
         for name, value in values.items():
             total[name] = value * weight if name not in total else total[name] + value * weight
+    return total, P
+
+
+def fixed_point_matrices(exponents: np.ndarray, sign: int, bits: int):
+    """Fixed-point integer matrices of a zero-power basis (every entry of
+    :func:`fixed_point_entries`).
+
+    Returns
+    -------
+    (dict name -> list of lists of int, P) with ``entry / (16π²) = int · 2^-P``.
+    """
+    N = np.asarray(exponents).shape[0]
+    rows, cols = np.triu_indices(N)
+    total, P = fixed_point_entries(exponents, sign, bits, rows, cols)
     out = {}
     for name in NAMES:
         full = np.empty((N, N), dtype=object)

@@ -190,8 +190,13 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined) ->
     energies = [float(t) for t in texts]
     # the arithmetic error of N/2 enters only the ratio (which is clamped); those of N/√2 and N
     # enter the last step and the value itself
-    estimate = estimate_tail(energies, max(numerical[0], numerical[-1]), texts)
+    floor = max(numerical[0], numerical[-1])
+    estimate = estimate_tail(energies, floor, texts)
+    note = estimate.note
+    if floor > estimate.tail_hartree:
+        note = (note + "; " if note else "") + ("the bar is set by the estimated arithmetic error, "
+                                                "not by the basis: a higher precision gives a tighter one")
     return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
             "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
             "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,
-            "note": estimate.note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
+            "note": note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
