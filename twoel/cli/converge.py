@@ -74,6 +74,14 @@ def _row_texts(study):
         yield n, et, dt, qt
 
 
+def _true_error_text(study) -> str:
+    """Last energy minus the reference, with the last energy's arithmetic error (signed)."""
+    error = study.true_error_hartree()
+    u = max(study.numerical_errors[-1], 2.0**-52 * abs(error))
+    text = scientific_uncertain(error, u)
+    return text if text.startswith("-") else "+" + text
+
+
 def table_text(study) -> str:
     """The text of ``twoel converge``: every number in concise form with its uncertainty."""
     from twoel.report.numbers import format_uncertain
@@ -111,8 +119,7 @@ def table_text(study) -> str:
                      "the error bar may not be trustworthy" if bar is not None else "reliable: false")
     if study.reference_hartree is not None:
         lines.append(f"reference: {study.reference_text} Eh [{study.reference_source}]  "
-                     "true error of the last energy: "
-                     f"{scientific_uncertain(study.true_error_hartree(), study.numerical_errors[-1] or 1e-16 * abs(study.variational_hartree))} Eh")
+                     f"true error of the last energy: {_true_error_text(study)} Eh")
     return "\n".join(lines) + "\n"
 
 
