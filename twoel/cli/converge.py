@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 
 from twoel.cli.common import COMPACT_NOTE, add_charge_argument, add_full_argument, print_json
@@ -40,30 +41,85 @@ def add_parser(subparsers) -> None:
     p.set_defaults(run=run)
 
 
-def table_text(study) -> str:
-    lines = [f"{study.ion} {study.state}  family {study.family}, {study.precision}",
-             f"{'N':>6}  {'E(N) / Eh':<34} {'E(N-1) - E(N)':>13}  {'ratio':>7}  {'time/s':>7}"]
-    from twoel.solver.refine import truncate_text
+def scientific_uncertain(value: float, uncertainty: float) -> str:
+    """``value(uncertainty)`` in concise form with a power-of-ten factor, e.g. ``8.68(1)e-09``
+    (the factor of the larger of the two, so an uncertainty above the value still shows)."""
+    from twoel.report.numbers import format_uncertain
 
-    for n, t, u, d, q, s in zip(study.sizes, study.energy_texts, study.numerical_errors,
-                                study.differences, study.ratios, study.seconds):
-        t = truncate_text(t, u)  # digits below the arithmetic error are not shown
-        dt = "" if d is None else f"{d:.3e}"
-        qt = "" if q is None else f"{q:.3f}"
-        lines.append(f"{n:>6}  {t:<34} {dt:>13}  {qt:>7}  {s:>7.2f}")
+    top = max(abs(value), abs(uncertainty))
+    if top == 0 or not math.isfinite(top):
+        return format_uncertain(value, uncertainty or None)
+    exponent = math.floor(math.log10(top))
+    scale = 10.0 ** exponent
+    return f"{format_uncertain(value / scale, uncertainty / scale)}e{exponent:+03d}"
+
+
+def _row_texts(study):
+    """Concise texts of each row: energy (arithmetic error), step and ratio with their errors."""
+    from twoel.report.numbers import format_uncertain
+
+    u = list(study.numerical_errors)
+    for k, (n, t, d, q) in enumerate(zip(study.sizes, study.energy_texts, study.differences,
+                                         study.ratios)):
+        et = format_uncertain(t, u[k] or None)
+        dt = qt = ""
+        if d is not None:
+            du = u[k - 1] + u[k] + 2.0**-52 * abs(d)  # a step is a float64: its last bit too
+            dt = scientific_uncertain(d, du)
+            prev = study.differences[k - 1]
+            if q is not None and prev:
+                pu = u[k - 2] + u[k - 1]
+                qu = abs(q) * (du / abs(d) + pu / abs(prev)) if d else abs(pu / prev) + du / abs(prev)
+                qt = format_uncertain(f"{q:.3f}", max(qu, 0.0005)) if qu < 10 else "undetermined"
+        yield n, et, dt, qt
+
+
+def _true_error_text(study) -> str:
+    """Last energy minus the reference, with the last energy's arithmetic error (signed)."""
+    error = study.true_error_hartree()
+    u = max(study.numerical_errors[-1], 2.0**-52 * abs(error))
+    text = scientific_uncertain(error, u)
+    return text if text.startswith("-") else "+" + text
+
+
+def table_text(study) -> str:
+    """The text of ``twoel converge``: every number in concise form with its uncertainty."""
+    from twoel.report.numbers import format_uncertain
+
+    rows = list(_row_texts(study))
+    width = max([len(r[1]) for r in rows] + [10])
+    dwidth = max([len(r[2]) for r in rows] + [13])
+    qwidth = max([len(r[3]) for r in rows] + [7])
+    bound = study.bound or (True,) * len(study.sizes)
+    lines = [f"{study.ion} {study.state}  family {study.family}, {study.precision}",
+             f"{'N':>6}  {'E(N) / Eh (arithmetic error)':<{width}}  {'E(N-1) - E(N)':>{dwidth}}  "
+             f"{'ratio':>{qwidth}}  {'time/s':>7}"]
+    for (n, et, dt, qt), s, b in zip(rows, study.seconds, bound):
+        mark = "" if b else "  not bound"
+        lines.append(f"{n:>6}  {et:<{width}}  {dt:>{dwidth}}  {qt:>{qwidth}}  {s:>7.2f}{mark}")
     bar = study.variational_error_bar_hartree
-    last = truncate_text(study.energy_texts[-1], bar) if bar else repr(study.variational_hartree)
-    lines.append(f"variational (upper bound) E = {last} Eh "
-                 f"± {bar:.1e} (estimated truncation + arithmetic)")
-    lines.append(f"extrapolated E = {study.extrapolated_hartree!r} Eh ± {study.extrapolated_error_bar_hartree:.1e}")
-    lines.append(f"digits stood behind: {study.digits}")
-    if study.note:
-        lines.append(f"note: {study.note}")
+    if bar is None:
+        u = study.numerical_errors[-1]
+        lines.append(f"variational (upper bound) E = {format_uncertain(study.energy_texts[-1], u or None)} Eh "
+                     "(arithmetic error only)")
+        lines.append(f"{study.note}")
+    else:
+        lines.append(f"variational (upper bound) E = {format_uncertain(study.energy_texts[-1], bar)} Eh "
+                     f"(bar ± {bar:.1e}: estimated truncation + arithmetic)")
+        if study.extrapolated_hartree is not None:
+            lines.append(f"extrapolated E = {format_uncertain(study.extrapolated_hartree, study.extrapolated_error_bar_hartree)} Eh "
+                         f"(bar ± {study.extrapolated_error_bar_hartree:.1e})")
+        lines.append(f"digits stood behind: {study.digits} (those the bar supports)")
+        if study.note:
+            lines.append(f"note: {study.note}")
+    if study.binding_note:
+        lines.append(("warning: " if study.may_be_unbound else "binding: ") + study.binding_note)
     if not study.reliable:
-        lines.append("warning: the sequence is not regular; the error bar may not be trustworthy")
+        lines.append("warning: reliable: false (the sequence is not regular); "
+                     "the error bar may not be trustworthy" if bar is not None else "reliable: false")
     if study.reference_hartree is not None:
         lines.append(f"reference: {study.reference_text} Eh [{study.reference_source}]  "
-                     f"true error of the last energy: {study.true_error_hartree():+.2e} Eh")
+                     f"true error of the last energy: {_true_error_text(study)} Eh")
     return "\n".join(lines) + "\n"
 
 
