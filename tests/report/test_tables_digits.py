@@ -78,3 +78,29 @@ def test_reference_shows_its_stated_uncertainty():
     frame = pd.DataFrame([{"reference_hartree": 6082.99, "reference_uncertainty_hartree": 0.15}])
     # H- detachment energy, Lykke et al., Phys. Rev. A 43, 6104 (1991): 6082.99(15) cm⁻¹
     assert "6083.0(2)" in render(frame, "markdown", columns=["reference_hartree"])
+
+
+def test_committed_demo_report_shows_the_bars():
+    # the committed demo: every level energy carries its bar in parentheses, its last digit at
+    # the bar's leading digit, and lies within half a unit of that digit of the full CSV value
+    import csv
+    import math
+    from pathlib import Path
+
+    tables = Path(__file__).resolve().parents[2] / "reports" / "demo-isoelectronic" / "tables"
+    with (tables / "levels.csv").open(encoding="utf-8") as handle:
+        rows = list(csv.DictReader(handle))
+    lines = (tables / "levels.md").read_text(encoding="utf-8").splitlines()
+    header = [c.strip() for c in lines[0].strip("|").split("|")]
+    cells = [[c.strip() for c in line.strip("|").split("|")] for line in lines[2:2 + len(rows)]]
+    for row, shown in zip(rows, cells):
+        bar = float(row["error_bar_hartree"])
+        text = shown[header.index("E (Eh)")].replace("\u202f", "")
+        value, _, digit = text.partition("(")
+        decimals = len(value.split(".")[1])
+        place = math.floor(math.log10(bar) + 1e-9)
+        assert decimals in (-place, -place - 1)           # 0.96 rounds up one place
+        assert 1 <= int(digit.rstrip(")")) <= 10
+        assert abs(float(value) - float(row["energy_hartree"])) <= 0.5 * 10.0 ** -decimals
+    series = (tables / "series.md").read_text(encoding="utf-8")
+    assert "\u2020 no uncertainty" in series                  # the hylleraas family gives no bar
