@@ -39,7 +39,9 @@ def test_latex_is_well_formed_and_groups_digits(frame):
     assert info["environments"] == ["table", "tabular"]
     assert r"$-2.903\,713\,945\,024(2)$" in text              # value with its error bar folded
     assert r"\cite{schwartz2006}" in text
-    assert r"$-2.903\,724\,377\,034\,120$" in text              # reference from its text, 15 decimals
+    assert r"$-2.903\,724\,377\,034\,120^{\ddagger}$" in text   # reference from its text, rounded at 15
+    assert r"$-13.6^{\dagger}$" in text                                # no error bar: marked
+    assert r"$\dagger$ no uncertainty" in text and r"$\ddagger$ rounded to 15 decimals" in text
     assert r"$1.04\times 10^{-5}$" in text
     assert r"$2\,^{3}\mathrm{S}$" in text and r"Be$^{2+}$" in text
     assert r"50\% \& more\_\{x\}" in text
@@ -80,16 +82,23 @@ def test_generated_table_compiles(frame, tmp_path):
 def test_markdown_csv_json(frame):
     md = render(frame, "markdown")
     assert "-2.903\u202f713\u202f945\u202f024(2)" in md and "[schwartz2006]" in md
-    assert md.count("\n") == 4 and "error bar" not in md
+    table, _, notes = md.partition("\n\n")
+    assert table.count("\n") == 3 and "error bar" not in table      # header, rule, two rows
+    assert notes.startswith("\u2020 no uncertainty") and "\u2021 rounded to 15 decimals" in notes
     csv_text = render(frame, "csv")
     back = pd.read_csv(io.StringIO(csv_text))
     assert back["energy_hartree"][0] == frame["energy_hartree"][0]    # full precision round trip
-    assert list(back.columns) == list(frame.columns)
+    concise = [c for c in back.columns if c.endswith("_concise")]
+    assert [c for c in back.columns if c not in concise] == list(frame.columns)
+    assert concise == ["energy_hartree_concise", "reference_hartree_concise"]
+    assert back["energy_hartree_concise"][0] == "-2.903713945024(2)"
+    assert back["energy_hartree_concise"][1] == "-13.6 (no uncertainty)"
     records = json.loads(render(frame, "json"))
     assert records[0]["energy_hartree"] == frame["energy_hartree"][0]
     assert records[1]["reference_hartree"] is None
     html = render(frame, "html")
     assert html.count("<tr>") == 3 and html.count("<th>") == md.splitlines()[0].count("|") - 1
+    assert '<p class="table-notes">\u2020 no uncertainty' in html
     assert "<td style=\"text-align:right\">-2.903\u202f713\u202f945\u202f024(2)</td>" in html
 
 
@@ -99,7 +108,7 @@ def test_column_choice(frame):
     text = render(frame, "csv", columns=["ion", "Z"])
     assert text.splitlines()[0] == "ion,Z"
     md = render(frame, "markdown", columns=["Z", "energy_hartree"])
-    assert "-2.903\u202f713\u202f945\u202f024\u202f304 |" in md      # no folding without the bar column
+    assert "-2.903\u202f713\u202f945\u202f024(2) |" in md      # the row's bar is used when not shown
     with pytest.raises(InputError, match="unknown column"):
         select_columns(frame, "Z,nope")
     with pytest.raises(InputError, match="twice"):

@@ -62,9 +62,13 @@ def series_frame(charges, keywords: dict, progress: bool = False, jobs: int | No
     ``progress`` reports each finished row on stderr (:func:`row_counter`).
     """
     from twoel.analysis.sweep import series_frame as build
+    from twoel.analysis.sweep import series_tasks, solve_many
+    from twoel.report.build import with_reliability
 
     with row_counter(enabled=progress) as update:
-        return build(charges, keywords, progress=update, jobs=jobs)
+        results = solve_many(series_tasks(charges, keywords), jobs=jobs, progress=update,
+                             description="ions")
+    return with_reliability(build(charges, keywords, results=results), results)
 
 
 def run(args: argparse.Namespace) -> int:

@@ -281,6 +281,24 @@ def _level_frame(results):
     return pd.DataFrame([result_row(r) for r in results])
 
 
+def with_reliability(frame, results):
+    """``frame`` with a ``reliable`` column (each result's error-bar flag; None: no bar).
+
+    Text, not a float: the ``numbers`` block of the provenance is unchanged by it.
+    """
+    if "reliable" not in frame.columns and len(frame) == len(results):
+        frame = frame.copy()
+        frame["reliable"] = _object_series([getattr(r, "reliable", None) for r in results])
+    return frame
+
+
+def _object_series(values):
+    """A pandas object Series (so True/False/None stay as they are)."""
+    import pandas as pd
+
+    return pd.Series(list(values), dtype=object)
+
+
 def _result_record(task: dict, result) -> dict:
     record = result.to_dict()
     record.pop("elapsed_seconds", None)
@@ -410,7 +428,8 @@ def _write_table(folder: Path, stem: str, frame, columns, caption: str, page: _P
                       render(frame, "latex", caption=caption, columns=columns, label=f"tab:{stem}"))
     page.paragraph(f"Table: {caption}")
     page.table(render(frame, "markdown", columns=columns), render(frame, "html", columns=columns),
-               f"Files: tables/{stem}.md, .csv (every column, full precision), .tex, .json.")
+               f"Files: tables/{stem}.md, .csv (every column at full precision, and *_concise text "
+               "columns with the digits the uncertainty supports), .tex, .json.")
     return [f"tables/{stem}.{ext}" for ext in ("md", "csv", "json", "tex")]
 
 
@@ -468,7 +487,7 @@ def _series_section(folder: Path, section: dict, results: list, page: _Page):
     from twoel.analysis.sweep import series_frame
     from twoel.report import plots
 
-    frame = series_frame(section["Z"], {}, results=results)
+    frame = with_reliability(series_frame(section["Z"], {}, results=results), results)
     page.heading(2, "Isoelectronic sequence")
     files = _write_table(folder, "series", frame, SERIES_COLUMNS,
                          f"{frame['state'].iloc[0]} energies along the sequence, family "
@@ -497,7 +516,8 @@ def _convergence_section(folder: Path, section: dict, results: list, page: _Page
     from twoel.analysis.sweep import convergence_frame
     from twoel.report import plots
 
-    frame = convergence_frame(section["Z"], section["sizes"], {}, results=results)
+    frame = with_reliability(convergence_frame(section["Z"], section["sizes"], {}, results=results),
+                              results)
     page.heading(2, "Convergence with the basis")
     files = _write_table(folder, "convergence", frame, CONVERGENCE_COLUMNS,
                          f"{frame['ion'].iloc[0]} {frame['state'].iloc[0]}: energy against "
@@ -519,7 +539,7 @@ def _levels_section(folder: Path, results: list, page: _Page):
     """Levels table and diagram; returns the frame and the files written."""
     from twoel.report import plots
 
-    frame = _level_frame(results)
+    frame = with_reliability(_level_frame(results), results)
     page.heading(2, "Computed levels")
     files = _write_table(folder, "levels", frame, LEVEL_COLUMNS,
                          f"Computed levels of {frame['ion'].iloc[0]}", page)

@@ -16,7 +16,7 @@ No function here does I/O or knows about tables.
 from __future__ import annotations
 
 import math
-from decimal import ROUND_HALF_EVEN, ROUND_HALF_UP, Decimal, InvalidOperation
+from decimal import ROUND_HALF_EVEN, ROUND_HALF_UP, Decimal, InvalidOperation, localcontext
 
 from twoel.errors import InputError
 
@@ -56,7 +56,9 @@ def plain(value: Decimal) -> str:
 def round_to_decimals(value, decimals: int) -> str:
     """``value`` rounded half-even to ``decimals`` digits after the point, fixed-point text."""
     d = to_decimal(value)
-    return plain(d.quantize(Decimal(1).scaleb(-decimals), rounding=ROUND_HALF_EVEN))
+    with localcontext() as context:
+        context.prec = 80
+        return plain(d.quantize(Decimal(1).scaleb(-decimals), rounding=ROUND_HALF_EVEN))
 
 
 def format_uncertain(value, uncertainty=None, *, uncertainty_digits: int = 1,
@@ -84,6 +86,12 @@ def format_uncertain(value, uncertainty=None, *, uncertainty_digits: int = 1,
     """
     if uncertainty_digits < 1:
         raise InputError(f"uncertainty_digits must be >= 1, got {uncertainty_digits}")
+    with localcontext() as context:   # enough digits for a 1e-33 uncertainty on a 1e6 value
+        context.prec = 80
+        return _format_uncertain(value, uncertainty, uncertainty_digits, max_decimals)
+
+
+def _format_uncertain(value, uncertainty, uncertainty_digits: int, max_decimals: int | None) -> str:
     v = to_decimal(value)
     u = None if uncertainty is None else abs(to_decimal(uncertainty))
     if u is None or u == 0:

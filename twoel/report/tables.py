@@ -1,13 +1,24 @@
 r"""Render a :class:`pandas.DataFrame` of results as Markdown, CSV, LaTeX, JSON (or HTML) text.
 
 CSV and JSON are for machines: every selected column, every float at full ``repr`` precision
-(``%.17g``), nothing folded.  Markdown, LaTeX and HTML are for people and papers:
+(``%.17g``), nothing folded.  When every column is written (no column choice), each value
+column of :data:`UNCERTAIN_COLUMNS` present also gets a text column ``<column>_concise`` with the
+rounded concise form (``-2.903724377034(2)``, ungrouped; a value without an uncertainty is its
+full ``repr`` followed by ``" (no uncertainty)"``).  Markdown, LaTeX and HTML are for people and papers:
 
 * digits are grouped in threes after the decimal point (``-2.903 724 377 034``; thin spaces
   ``\,`` in LaTeX, narrow no-break spaces in Markdown/HTML; ISO 80000-1 §7.3.1);
-* a value column with its uncertainty column beside it (see :data:`UNCERTAINTY_COLUMNS`) is
-  written once in the parenthesis notation ``-2.903 724 377 034(2)``, and the uncertainty
-  column is then not repeated;
+* a value with an uncertainty is written in the parenthesis notation ``-2.903 724 377 034(2)``
+  with only the digits the uncertainty supports (an uncertainty column selected beside its
+  value is then not repeated).  The uncertainty of an energy is its ``error_bar_hartree``, of a
+  reference its ``reference_uncertainty_hartree`` (:data:`UNCERTAINTY_COLUMNS`), of an ionization
+  energy the energy's bar converted to its unit (the nonrelativistic threshold is exact;
+  :data:`PROPAGATED_UNCERTAINTY`), taken from the row whether or not the uncertainty column is
+  shown;
+* a value of :data:`UNCERTAIN_COLUMNS` without an uncertainty is shown as computed and marked
+  ``†``; a value whose uncertainty lies beyond ``max_decimals`` is rounded there and marked
+  ``‡``; an energy whose bar is flagged ``reliable: false`` is marked ``§``.  The table is followed
+  by one note per mark used (:data:`MARK_NOTES`);
 * reference values are printed from their exact text (``reference_hartree_text``) when the frame
   has it, so digits beyond float64 survive;
 * small differences and increments are printed in scientific notation with 3 digits;
@@ -39,6 +50,31 @@ TABLE_FORMATS = ("markdown", "csv", "latex", "json")
 UNCERTAINTY_COLUMNS = {
     "energy_hartree": "error_bar_hartree",
     "reference_hartree": "reference_uncertainty_hartree",
+}
+
+#: value column -> (column of the energy's error bar, unit it is converted to): an ionization
+#: energy ``-Z²/2 - E`` has the bar of ``E`` (the nonrelativistic threshold is exact), scaled by the
+#: unit conversion (the CODATA uncertainty of the conversion factor, 1e-12 relative, is left out)
+PROPAGATED_UNCERTAINTY = {
+    "ionization_energy_hartree": ("error_bar_hartree", "hartree"),
+    "ionization_energy_ev": ("error_bar_hartree", "eV"),
+    "ionization_energy_cm1": ("error_bar_hartree", "cm-1"),
+}
+
+#: value columns whose printed digits need an uncertainty (marked when they have none)
+UNCERTAIN_COLUMNS = frozenset({"energy_hartree", "reference_hartree", "extrapolated_hartree",
+                               "correlation_energy_hartree", *PROPAGATED_UNCERTAINTY})
+
+#: mark -> (plain-text symbol, LaTeX math symbol)
+MARKS = {"nobar": ("\u2020", r"\dagger"), "rounded": ("\u2021", r"\ddagger"), "unreliable": ("\u00a7", r"\S")}
+
+#: mark -> the note printed under a table that uses it
+MARK_NOTES = {
+    "nobar": "no uncertainty (the basis family gives no error bar, or the source states none): "
+             "shown as computed, up to {digits} significant digits; not all of them are correct",
+    "rounded": "rounded to {decimals} decimals; the stated uncertainty is smaller "
+               "(every digit in the .csv/.json)",
+    "unreliable": "error bar flagged reliable: false (the nested bases do not converge regularly)",
 }
 
 #: value column -> the column holding its exact decimal text
@@ -162,19 +198,128 @@ def _shown_columns(columns: list[str]) -> list[str]:
     return [c for c in columns if c not in folded]
 
 
-def _number_text(row, column: str, columns: list[str], max_decimals: int | None) -> str | None:
-    """Ungrouped fixed-point (or concise-notation) text of a float cell, or None if scientific."""
+def _positive(value):
+    """``value`` as a float if it is a finite positive number, else None."""
+    if _missing(value):
+        return None
+    try:
+        x = abs(float(value))
+    except (TypeError, ValueError):
+        return None
+    return x if math.isfinite(x) and x > 0 else None
+
+
+def cell_uncertainty(row, column: str):
+    """Standard uncertainty of ``row[column]`` in the column's unit, or None if it has none.
+
+    From the row's uncertainty column (:data:`UNCERTAINTY_COLUMNS`) or propagated from the
+    energy's bar (:data:`PROPAGATED_UNCERTAINTY`); the uncertainty column need not be shown.
+    """
+    index = getattr(row, "index", ())
+    unc_col = UNCERTAINTY_COLUMNS.get(column)
+    if unc_col is not None and unc_col in index:
+        return _positive(row[unc_col])
+    propagated = PROPAGATED_UNCERTAINTY.get(column)
+    if propagated is not None and propagated[0] in index:
+        bar = _positive(row[propagated[0]])
+        if bar is None:
+            return None
+        if propagated[1] == "hartree":
+            return bar
+        from twoel.units import hartree_to
+
+        return abs(float(hartree_to(bar, propagated[1])))
+    return None
+
+
+def _exact_value(row, column: str):
+    """The cell value, from its exact text column when the row has one."""
     value = row[column]
     text_col = TEXT_COLUMNS.get(column)
     if text_col is not None and text_col in row.index and not _missing(row[text_col]):
         value = str(row[text_col])
-    unc_col = UNCERTAINTY_COLUMNS.get(column)
-    uncertainty = None
-    if unc_col in columns and not _missing(row[unc_col]):
-        uncertainty = row[unc_col]
+    return value
+
+
+def _last_place(uncertainty) -> int:
+    """Exponent of the last digit the (1-digit) uncertainty reaches (rounding 0.96 -> 1 up)."""
+    from decimal import ROUND_HALF_UP, Decimal
+
+    u = abs(Decimal(repr(float(uncertainty))))
+    last = u.adjusted()
+    if u.quantize(Decimal(1).scaleb(last), rounding=ROUND_HALF_UP).adjusted() > last:
+        last += 1
+    return last
+
+
+def _number_text(row, column: str, columns: list[str], max_decimals: int | None):
+    """``(text, mark)``: ungrouped fixed-point or concise text of a float cell (None: print it in
+    scientific notation) and the mark of :data:`MARKS` it needs (or None)."""
+    value = _exact_value(row, column)
+    uncertainty = cell_uncertainty(row, column)
+    mark = None
+    if column in UNCERTAIN_COLUMNS:
+        if uncertainty is None:
+            mark = "nobar"
+        elif max_decimals is not None and -_last_place(uncertainty) > max_decimals:
+            mark = "rounded"
+        elif column == "energy_hartree" and "reliable" in row.index and not _missing(row["reliable"]) \
+                and not bool(row["reliable"]):
+            mark = "unreliable"
     if isinstance(value, float) and uncertainty is None and "e" in repr(value):
+        return None, mark
+    return format_uncertain(value, uncertainty, max_decimals=max_decimals), mark
+
+
+def concise_text(row, column: str) -> str | None:
+    """Machine text of ``row[column]``: the concise form, ungrouped, at every supported digit;
+    a value without an uncertainty is its full text followed by ``" (no uncertainty)"``."""
+    if _missing(row[column]):
         return None
-    return format_uncertain(value, uncertainty, max_decimals=max_decimals)
+    try:
+        if not math.isfinite(float(row[column])):
+            return None
+    except (TypeError, ValueError):
+        return None
+    value = _exact_value(row, column)
+    uncertainty = cell_uncertainty(row, column)
+    if uncertainty is None:
+        return format_uncertain(value) + " (no uncertainty)"
+    return format_uncertain(value, uncertainty)
+
+
+def _with_mark(text: str, mark: str | None, style: str) -> str:
+    if mark is None:
+        return text
+    plain_mark, latex_mark = MARKS[mark]
+    if style == "latex":
+        return text[:-1] + "^{" + latex_mark + "}$" if text.endswith("$") else text + f"$^{{{latex_mark}}}$"
+    return text + plain_mark
+
+
+def _significant_digits(text: str) -> int:
+    digits = "".join(ch for ch in text.split("(")[0] if ch.isdigit()).lstrip("0")
+    return len(digits)
+
+
+def _table_notes(frame: pd.DataFrame, columns: list[str], shown: list[str], max_decimals: int | None,
+                 formats: dict | None = None) -> list[tuple[str, str]]:
+    """``[(mark, note text)]`` for the marks the shown cells use, in :data:`MARKS` order."""
+    used: dict[str, int] = {}
+    for _, row in frame.iterrows():
+        for column in shown:
+            if column not in UNCERTAIN_COLUMNS or (formats or {}).get(column) or _missing(row[column]):
+                continue
+            try:
+                if not math.isfinite(float(row[column])):
+                    continue
+            except (TypeError, ValueError):
+                continue
+            text, mark = _number_text(row, column, columns, max_decimals)
+            if mark is not None:
+                used[mark] = max(used.get(mark, 0), _significant_digits(text or ""))
+    return [(mark, MARK_NOTES[mark].format(digits=used[mark], decimals=max_decimals))
+            for mark in MARKS if mark in used]
 
 
 def _display_cell(row, column: str, columns: list[str], style: str, max_decimals: int | None,
@@ -216,12 +361,15 @@ def _display_cell(row, column: str, columns: list[str], style: str, max_decimals
         if column == "Z" and value == int(value):
             text = str(int(value))
             return f"${text}$" if style == "latex" else text
-        text = None if column in SCIENTIFIC_COLUMNS else _number_text(row, column, columns, max_decimals)
+        text, mark = (None, None) if column in SCIENTIFIC_COLUMNS else \
+            _number_text(row, column, columns, max_decimals)
         if text is None:
-            return latex_scientific(value) if style == "latex" else text_scientific(value)
-        if style == "latex":
-            return latex_number(text)
-        return group_digits(text, NARROW_NBSP)
+            text = latex_scientific(value) if style == "latex" else text_scientific(value)
+        elif style == "latex":
+            text = latex_number(text)
+        else:
+            text = group_digits(text, NARROW_NBSP)
+        return _with_mark(text, mark, style)
     return latex_escape(value) if style == "latex" else str(value)
 
 
@@ -251,14 +399,40 @@ def to_markdown(frame: pd.DataFrame, formats: dict[str, str] | None = None, colu
         cells = [_display_cell(row, c, columns, "markdown", max_decimals, formats).replace("|", r"\|")
                  for c in shown]
         lines.append("| " + " | ".join(cells) + " |")
+    notes = _table_notes(frame, columns, shown, max_decimals, formats)
+    if notes:
+        lines.append("")
+        lines += [f"{MARKS[mark][0]} {text}" + ("  " if i < len(notes) - 1 else "")
+                  for i, (mark, text) in enumerate(notes)]
     return "\n".join(lines) + "\n"
 
 
-def to_csv(frame: pd.DataFrame, columns=None) -> str:
-    """CSV of the selected columns, floats at full precision."""
+def _concise_columns(frame: pd.DataFrame, columns: list[str]) -> list[str]:
+    """The value columns that get a ``<column>_concise`` text column in CSV/JSON."""
+    return [c for c in columns if c in UNCERTAIN_COLUMNS and _numeric(frame, c)
+            and f"{c}_concise" not in frame.columns]
+
+
+def with_concise_columns(frame: pd.DataFrame, columns=None) -> pd.DataFrame:
+    """A copy of ``frame`` with a text column ``<column>_concise`` after each value column of
+    :data:`UNCERTAIN_COLUMNS` (see :func:`concise_text`)."""
     columns = select_columns(frame, columns)
+    extra = _concise_columns(frame, columns)
+    out = frame[columns].copy()
+    for column in extra:
+        texts = [concise_text(row, column) for _, row in frame.iterrows()]
+        out.insert(list(out.columns).index(column) + 1, f"{column}_concise", texts)
+    return out
+
+
+def to_csv(frame: pd.DataFrame, columns=None) -> str:
+    """CSV of the selected columns, floats at full precision.
+
+    Without a column choice, every column plus the ``<column>_concise`` text columns.
+    """
+    table = with_concise_columns(frame) if columns is None else frame[select_columns(frame, columns)]
     buffer = io.StringIO()
-    frame[columns].to_csv(buffer, index=False, float_format="%.17g", lineterminator="\n")
+    table.to_csv(buffer, index=False, float_format="%.17g", lineterminator="\n")
     return buffer.getvalue()
 
 
@@ -279,13 +453,22 @@ def to_latex(frame: pd.DataFrame, caption: str | None = None, formats: dict[str,
         lines.append(" & ".join(_display_cell(row, c, columns, "latex", max_decimals, formats)
                                 for c in shown) + r" \\")
     lines += [r"\bottomrule", r"\end{tabular}"]
+    notes = _table_notes(frame, columns, shown, max_decimals, formats)
+    if notes:
+        lines.append(r"\par\smallskip{\footnotesize " + r" \\ ".join(
+            f"${MARKS[mark][1]}$ " + latex_text(text) for mark, text in notes) + "}")
     if caption:
         lines.append(r"\end{table}")
     return "\n".join(lines) + "\n"
 
 
 def to_json(frame: pd.DataFrame, columns=None) -> str:
-    """A JSON list of records (NaN becomes ``null``), floats at full precision."""
+    """A JSON list of records (NaN becomes ``null``), floats at full precision.
+
+    Without a column choice, every column plus the ``<column>_concise`` text fields.
+    """
+    if columns is None:
+        frame = with_concise_columns(frame)
     columns = select_columns(frame, columns)
     records = []
     for _, row in frame.iterrows():
@@ -321,6 +504,10 @@ def to_html(frame: pd.DataFrame, columns=None, caption: str | None = None,
             cells.append(f"<td{align}>{_html.escape(_display_cell(row, c, columns, 'html', max_decimals))}</td>")
         out.append("<tr>" + "".join(cells) + "</tr>")
     out += ["</tbody>", "</table>"]
+    notes = _table_notes(frame, columns, shown, max_decimals)
+    if notes:
+        out.append('<p class="table-notes">' + "<br>".join(
+            f"{MARKS[mark][0]} {_html.escape(text)}" for mark, text in notes) + "</p>")
     return "\n".join(out) + "\n"
 
 
