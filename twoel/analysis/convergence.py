@@ -31,7 +31,8 @@ from twoel.errors import InputError
 from twoel.results import Result
 from twoel.solver.error_bar import (BAR_FACTOR, MAX_RATIO, MIN_RATIO, TailEstimate,  # noqa: F401
                                     error_bar_sizes, estimate_tail, step_ratios, steps)
-from twoel.solver.pipeline import _digits_of, solve
+from twoel.solver.error_bar import supported_digits
+from twoel.solver.pipeline import solve
 
 #: why a study gets no error bar
 NOT_A_SEQUENCE = "no error bar: the family's sizes are not a converging sequence"
@@ -48,7 +49,7 @@ def trusted_digits(value: float, error_bar: float) -> int:
     0 without a bar."""
     if error_bar is None or not (math.isfinite(error_bar) and error_bar > 0) or value == 0:
         return 0
-    return max(0, _digits_of(value, error_bar))
+    return max(0, supported_digits(value, error_bar))
 
 
 @dataclass(frozen=True, repr=False)

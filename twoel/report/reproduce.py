@@ -307,16 +307,21 @@ def _same_bits(x, y) -> bool:
 def bit_differences(old: dict, new: dict) -> list[str]:
     """Differences between two ``numbers`` records (empty list: identical bit for bit)."""
     diffs = []
+    for where, va, vb in _paired_columns(old, new):
+        if va is None or vb is None or len(va) != len(vb):
+            diffs.append(f"{where}: present in only one run or of different length")
+            continue
+        diffs.extend(f"{where}[{i}]: {x!r} then {y!r}" for i, (x, y) in enumerate(zip(va, vb))
+                     if not _same_bits(x, y))
+    return diffs
+
+
+def _paired_columns(old: dict, new: dict):
+    """``("table.column", old values, new values)`` for every column of either record."""
     for table in sorted(set(old) | set(new)):
         a, b = old.get(table, {}), new.get(table, {})
         for column in sorted(set(a) | set(b)):
-            va, vb = a.get(column), b.get(column)
-            if va is None or vb is None or len(va) != len(vb):
-                diffs.append(f"{table}.{column}: present in only one run or of different length")
-                continue
-            diffs.extend(f"{table}.{column}[{i}]: {x!r} then {y!r}"
-                         for i, (x, y) in enumerate(zip(va, vb)) if not _same_bits(x, y))
-    return diffs
+            yield f"{table}.{column}", a.get(column), b.get(column)
 
 
 def compare_within(old: dict, new: dict, mode: str = "tolerance") -> dict:
@@ -329,38 +334,36 @@ def compare_within(old: dict, new: dict, mode: str = "tolerance") -> dict:
     tolerances = number_tolerances(old)
     compared, bits, within_u = 0, 0, 0
     beyond, largest = [], None
-    for table in sorted(set(old) | set(new)):
-        a, b = old.get(table, {}), new.get(table, {})
-        for column in sorted(set(a) | set(b)):
-            va, vb = a.get(column), b.get(column)
-            if va is None or vb is None or len(va) != len(vb):
-                beyond.append(f"{table}.{column}: present in only one run or of different length")
-                compared += len(va or vb or [])
-                continue
-            for i, (x, y) in enumerate(zip(va, vb)):
-                compared += 1
-                where = f"{table}.{column}[{i}]"
-                if _same_bits(x, y):
-                    ratio = 0.0
+    for name, va, vb in _paired_columns(old, new):
+        table, column = name.split(".", 1)
+        if va is None or vb is None or len(va) != len(vb):
+            beyond.append(f"{name}: present in only one run or of different length")
+            compared += len(va or vb or [])
+            continue
+        for i, (x, y) in enumerate(zip(va, vb)):
+            compared += 1
+            where = f"{name}[{i}]"
+            if _same_bits(x, y):
+                ratio = 0.0
+            else:
+                bits += 1
+                tol, source = tolerances[table][column][i]
+                if x is None or y is None:
+                    ratio = math.inf
                 else:
-                    bits += 1
-                    tol, source = tolerances[table][column][i]
-                    if x is None or y is None:
+                    d = abs(float(x) - float(y))
+                    if mode == "strict" or not tol:
                         ratio = math.inf
                     else:
-                        d = abs(float(x) - float(y))
-                        if mode == "strict" or not tol:
-                            ratio = math.inf
-                        else:
-                            ratio = d / tol
-                            if (source == "uncertainty" and column in UNCERTAINTY_COLUMNS
-                                    and d > REL_ENERGY * max(abs(x), abs(y)) and ratio <= 1):
-                                within_u += 1
-                    if ratio > 1:
-                        shown = "bit for bit" if (mode == "strict" or not tol) else f"tolerance {tol:.3g}"
-                        beyond.append(f"{where}: {x!r} then {y!r} ({shown})")
-                if largest is None or ratio > largest[0]:
-                    largest = (ratio, where)
+                        ratio = d / tol
+                        if (source == "uncertainty" and column in UNCERTAINTY_COLUMNS
+                                and d > REL_ENERGY * max(abs(x), abs(y)) and ratio <= 1):
+                            within_u += 1
+                if ratio > 1:
+                    shown = "bit for bit" if (mode == "strict" or not tol) else f"tolerance {tol:.3g}"
+                    beyond.append(f"{where}: {x!r} then {y!r} ({shown})")
+            if largest is None or ratio > largest[0]:
+                largest = (ratio, where)
     return {"compared": compared, "beyond": beyond, "largest": largest, "bit_differences": bits,
             "within_uncertainty_only": within_u}
 

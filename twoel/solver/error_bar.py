@@ -156,6 +156,18 @@ def float64_energy(hamiltonian, overlap, root: int, drop_threshold: float, solut
     return Float64Energy(energy, max(rise, 0.0) + rounding)
 
 
+def digits_error(energy_scale: float, digits: int) -> float:
+    """Largest error (Eh) that leaves ``digits`` significant digits of an energy of magnitude
+    ``energy_scale`` correct: half a unit in the last of them."""
+    return 0.5 * 10.0 ** (math.floor(math.log10(abs(energy_scale))) - digits + 1)
+
+
+def supported_digits(energy_scale: float, error: float) -> int:
+    """Significant digits of an energy of magnitude ``energy_scale`` that an error (or error
+    bar) ``error`` leaves correct (the inverse of :func:`digits_error`)."""
+    return max(0, int(math.floor(math.floor(math.log10(abs(energy_scale))) + 1 - math.log10(2.0 * error))))
+
+
 def error_bar_sizes(size: int) -> list[int]:
     """The two smaller sizes used for the error bar of a single ``size`` (``N/2``, ``N/√2``)."""
     return sorted({max(4, int(round(size / 2))), max(5, int(round(size / math.sqrt(2.0))))} - {size})

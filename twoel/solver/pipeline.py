@@ -13,7 +13,6 @@ tests a family's name.
 
 from __future__ import annotations
 
-import math
 import time
 import warnings
 from dataclasses import dataclass, replace
@@ -29,7 +28,7 @@ from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_gene
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.solver.optimize import minimize_energy, virial_scale
-from twoel.solver.error_bar import float64_energy, nested_error_bar
+from twoel.solver.error_bar import digits_error, float64_energy, nested_error_bar, supported_digits
 from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
                                  starting_condition_digits, truncate_text)
 from twoel.reference import lookup
@@ -141,12 +140,6 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
                  digit_target, drop_threshold)
 
 
-def digits_error(energy_scale: float, digits: int) -> float:
-    """Largest error (Eh) that leaves ``digits`` significant digits of an energy of magnitude
-    ``energy_scale`` correct: half a unit in the last of them."""
-    return 0.5 * 10.0 ** (math.floor(math.log10(abs(energy_scale))) - digits + 1)
-
-
 def _size_for_digits(fam, ion: Ion, state: State, digits: int, given_size, size):
     """The size that reaches ``digits`` by the family's stored convergence (``size`` given: a
     warning before the run when it cannot reach them)."""
@@ -164,21 +157,16 @@ def _size_for_digits(fam, ion: Ion, state: State, digits: int, given_size, size)
         if not enough:
             raise ResourceError(f"{digits} significant digits need more than the largest measured basis: "
                                 f"N = {reached[0]} reaches an error of {reached[1]:.0e} Eh (about "
-                                f"{_digits_of(ion.threshold_hartree, reached[1])} digits); ask for fewer digits")
+                                f"{supported_digits(ion.threshold_hartree, reached[1])} digits); ask for fewer digits")
         return enough[0]
     below = [error for n, error in table if n <= given_size]
     expected = below[-1] if below else table[0][1]
     if expected > target:
         need = f"N >= {enough[0]}" if enough else f"more than N = {reached[0]}"
-        warnings.warn(f"size {given_size} reaches about {_digits_of(ion.threshold_hartree, expected)} digits by the "
+        warnings.warn(f"size {given_size} reaches about {supported_digits(ion.threshold_hartree, expected)} digits by the "
                       f"stored convergence of {ion.label} {state.label}; {digits} digits need {need}: "
                       "the basis, not the arithmetic, limits the result", AccuracyWarning, stacklevel=4)
     return size
-
-
-def _digits_of(energy_scale: float, error: float) -> int:
-    """Significant digits of an energy of magnitude ``energy_scale`` left correct by ``error``."""
-    return max(0, int(math.floor(math.floor(math.log10(abs(energy_scale))) + 1 - math.log10(2.0 * error))))
 
 
 def _starting_parameters(fam, ion, state, size, options, given) -> list[Parameter]:
