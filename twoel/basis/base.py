@@ -131,6 +131,13 @@ class TrialFamily(ABC):
         """Size used for ``state`` when twoel chooses it (:attr:`Support.sizes`, else the default)."""
         return self.supports().sizes.get(state.L, self.default_size)
 
+    def nested_sizes(self, size: int) -> list[int]:
+        """The two smaller sizes whose bases are nested in that of ``size`` (for the error
+        bar): ``N/2`` and ``N/√2`` for families whose size counts functions."""
+        from twoel.solver.error_bar import error_bar_sizes
+
+        return error_bar_sizes(size)
+
     def convergence(self, ion: Ion, state: State) -> list[tuple[int, float]]:
         """Stored ``(size, E(size) - E_exact)`` pairs (Eh) measured for ``(ion, state)`` against a
         published value, smallest size first; empty when none are stored."""

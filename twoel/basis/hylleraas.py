@@ -93,8 +93,13 @@ class HylleraasFamily(TrialFamily):
     min_size = 0
     max_size = 16
     option_names = ("exponents", "terms", "coordinates")
-    #: S states in float64; ω = 8 when twoel chooses the size for a state
-    support = Support(L_values=(0,), sizes={0: 8})
+    #: S states in float64 with an error bar from the nested ω - 2, ω - 1, ω; ω = 8 when twoel
+    #: chooses the size for a state
+    support = Support(L_values=(0,), sizes={0: 8}, error_bar_L=(0,))
+
+    def nested_sizes(self, size: int) -> list[int]:
+        """``ω - 2`` and ``ω - 1``: with the same exponents their terms are subsets of ω's."""
+        return [size - 2, size - 1] if size is not None and size >= 2 else []
 
     def _options(self, ion: Ion, state: State, options: dict) -> tuple[int, str, list | None]:
         coordinates = options.get("coordinates", "r")

@@ -173,7 +173,8 @@ def error_bar_sizes(size: int) -> list[int]:
     return sorted({max(4, int(round(size / 2))), max(5, int(round(size / math.sqrt(2.0))))} - {size})
 
 
-def nested_error_bar(refined_at: Callable[[int], object], size: int, refined) -> dict:
+def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
+                     sizes: Sequence[int] | None = None) -> dict:
     """Truncation error bar of a solve of ``size`` terms from the nested bases ``N/2``, ``N/√2``.
 
     Parameters
@@ -185,6 +186,8 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined) ->
         The size of the solve.
     refined : RefinedEnergy
         Its refined energy.
+    sizes : sequence of int, optional
+        The two smaller nested sizes (default :func:`error_bar_sizes`: ``N/2``, ``N/√2``).
 
     Returns
     -------
@@ -193,7 +196,7 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined) ->
         ``extrapolated_hartree`` (Eh), ``reliable``, ``note``, ``method``.
     """
     texts, numerical = [], [refined.numerical_error_hartree]
-    sizes = error_bar_sizes(size)
+    sizes = error_bar_sizes(size) if sizes is None else sorted(sizes)
     for n in sizes:
         aux = refined_at(n)
         texts.append(aux.text)

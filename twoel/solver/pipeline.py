@@ -248,7 +248,8 @@ def _refine_step(plan: _Plan, solved: _Solved, record: dict | None, stage) -> tu
 
 def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | None:
     """Truncation error bar from nested smaller bases, where the family declares one."""
-    if not plan.fam.gives_error_bar(plan.state) or (error_bar is not None and not error_bar):
+    if not plan.fam.gives_error_bar(plan.state) or (error_bar is not None and not error_bar) \
+            or len(plan.fam.nested_sizes(plan.size)) < 2:  # too small a basis for a sequence
         return None
     if solved.refined is None:
         return _float64_error_bar(plan, solved, stage)
@@ -263,7 +264,7 @@ def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | No
             aux = _refine(b, plan.ion, plan.state, e, "extended", plan.digits, start=aux, stage=stage)
         return aux
 
-    return nested_error_bar(refined_energy, plan.size, solved.refined)
+    return nested_error_bar(refined_energy, plan.size, solved.refined, plan.fam.nested_sizes(plan.size))
 
 
 def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
@@ -278,8 +279,9 @@ def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
 
     final = float64_energy(solved.matrices.hamiltonian(Z), solved.matrices.overlap, root,
                            plan.drop_threshold, solved.eig)
-    bar = nested_error_bar(energy_at, plan.size, final)
-    bar["method"] += "; float64 energies, each with the rise of the energy when the drop threshold is raised 10x"
+    bar = nested_error_bar(energy_at, plan.size, final, plan.fam.nested_sizes(plan.size))
+    bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x2); float64 energies, each with "
+                     "the rise of the energy when the drop threshold is raised 10x")
     bar["float64_error_hartree"] = final.numerical_error_hartree
     return bar
 
