@@ -143,3 +143,35 @@ def test_root_home_and_current_folder_are_refused_before_anything(tmp_path, monk
     assert tio._protected(tio.Path("/")) == "the root folder"    # checked on the name only
     assert (home / "index.md").read_text() == "old report"
     assert (work / "index.md").read_text() == "old report"
+
+
+# --- 2. bounds before expansion -------------------------------------------------------------
+
+@pytest.mark.parametrize("argv, words", [
+    (("hf", "--Z", "2", "--sizes", "1:100000000"), ("--sizes", "at most 30", "100000000")),
+    (("hf", "--Z", "2", "--sizes", "1," + "9" * 5000), ("--sizes", "at most 30", "5000 digits")),
+    (("energy", "--Z", "2", "--terms", "0,0,99999999999999999999"),
+     ("--terms", "at most 60", "99999999999999999999")),
+    (("energy", "--Z", "2", "--size", "9" * 5000), ("--size", "at most", "5000 digits")),
+])
+def test_huge_sizes_and_powers_are_refused_on_the_text(capsys, argv, words):
+    code, _, err = run(capsys, *argv)
+    assert code == 2 and err.count("\n") == 1 and "Traceback" not in err, err
+    for word in words:
+        assert word in err
+
+
+def test_size_list_counts_a_range_before_expanding_it(monkeypatch):
+    import argparse
+
+    from twoel.cli import common
+
+    built = []
+    real_range = range
+    monkeypatch.setattr(common, "range", lambda *a: built.append(a) or real_range(*a), raising=False)
+    with pytest.raises(argparse.ArgumentTypeError, match="at most 1000 sizes, got 100000"):
+        common.size_list("1:100000")
+    assert built == []                                   # refused before any range was built
+    with pytest.raises(argparse.ArgumentTypeError, match="at most 6000 terms"):
+        common.term_list(";".join(["0,0,1"] * 6001))
+    assert common.size_list("1,2,4:14:2") == (1, 2, 4, 6, 8, 10, 12, 14)
