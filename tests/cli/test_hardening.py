@@ -175,3 +175,37 @@ def test_size_list_counts_a_range_before_expanding_it(monkeypatch):
     with pytest.raises(argparse.ArgumentTypeError, match="at most 6000 terms"):
         common.term_list(";".join(["0,0,1"] * 6001))
     assert common.size_list("1,2,4:14:2") == (1, 2, 4, 6, 8, 10, 12, 14)
+
+
+# --- 3. the energy checker on the command line ----------------------------------------------
+
+def test_check_csv_escapes_formula_labels(tmp_path, capsys):
+    import csv
+    import io
+
+    rows = tmp_path / "rows.csv"
+    rows.write_text("Z,energy,unit,label\n" + "".join(
+        f"2,-2.9033,hartree,{start}cmd|x\n" for start in ("=", "+", "-", "@")) + "2,-2.9033,hartree,CISD\n")
+    out = tmp_path / "out.csv"
+    code, _, err = run(capsys, "check", "--file", str(rows), "--format", "csv", "--out", str(out))
+    assert code == 0, err
+    labels = [r["label"] for r in csv.DictReader(io.StringIO(out.read_text()))]
+    assert labels == ["'=cmd|x", "'+cmd|x", "'-cmd|x", "'@cmd|x", "CISD"]
+
+
+def test_check_cli_units_and_hostile_files(tmp_path, capsys):
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy", "-2903.3", "--unit", "MEh")
+    one_line_refusal(code, err)
+    assert "ambiguous" in err
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy", str(-2.9033 * 219474.6313632),
+                         "--unit", "cm⁻¹", "--json")
+    assert code == 0 and json.loads(out)["flags"] == [], err
+    deep = tmp_path / "deep.json"
+    deep.write_text("[" * 100_000 + "]" * 100_000)
+    latin = tmp_path / "latin.csv"
+    latin.write_bytes(b"Z,energy,unit,label\n2,-2.9,hartree,M\xf8ller\n")
+    for path in (deep, latin, tmp_path / "no-such-file.csv"):
+        code, _, err = run(capsys, "check", "--file", str(path))
+        one_line_refusal(code, err)
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy=-1e300", "--unit", "Eh", "--json")
+    assert code == 0 and "below_exact" in json.loads(out)["flags"], err
