@@ -209,3 +209,14 @@ def test_check_cli_units_and_hostile_files(tmp_path, capsys):
         one_line_refusal(code, err)
     code, out, err = run(capsys, "check", "--Z", "2", "--energy=-1e300", "--unit", "Eh", "--json")
     assert code == 0 and "below_exact" in json.loads(out)["flags"], err
+
+
+# --- 4. hf at large charges -------------------------------------------------------------------
+
+@pytest.mark.slow
+def test_hf_default_sizes_at_z_118(capsys):
+    """Was 'no converged SCF' after tens of seconds; E2(HF) = -0.111003 (from memory) to 5e-5."""
+    code, out, err = run(capsys, "hf", "--Z", "118", "--json", "--quiet")
+    assert code == 0, err
+    energy = json.loads(out)["energy_hartree"]
+    assert energy + 118**2 - 5 * 118 / 8 == pytest.approx(-0.111003, abs=5e-5)
