@@ -86,3 +86,38 @@ def test_reference_ground_states_are_smooth_in_one_over_Z():
     tail = np.array([lookup(z).value + z**2 - 5 * z / 8 for z in Z])
     assert tail[0] == pytest.approx(-0.1576664 + 0.0087 / 3, abs=3e-4)
     assert np.max(np.abs(np.diff(tail * Z**3, 4))) < 1e-4
+
+
+def test_huge_charges_are_input_errors_not_overflow():
+    from fractions import Fraction
+
+    from twoel.system import parse_charge
+
+    for value in (10**400, -10**400, "1" * 500, "1e400", Fraction(10**400, 3)):
+        with pytest.raises(InputError, match="'Z' must be") as info:
+            Ion.parse(value)
+        assert len(str(info.value)) < 200
+    with pytest.raises(InputError, match="at most 118"):
+        Ion(10**400)
+    with pytest.raises(InputError, match="at most 200"):
+        parse_charge_range("1:1e308:1e-300")
+    assert parse_charge(Fraction(5, 2)) == 2.5
+
+
+def test_solve_refuses_a_huge_charge_before_any_work():
+    from twoel import solve
+
+    with pytest.raises(InputError, match="at most 118"):
+        solve(Z=10**400)
+
+
+def test_numpy_numbers_are_numbers():
+    np = pytest.importorskip("numpy")
+    from twoel import solve
+
+    assert Ion(np.int64(2)) == Ion(2) == Ion(np.float64(2.0)) == Ion.parse(np.int32(2))
+    assert State(np.int64(2), np.int64(3), np.int64(1)).label == "2^3P"
+    # the two-parameter screened 1s² value -(Z - 5/16)² = -2.84765625 Eh for He bounds the
+    # size-2 energy from above; the NumPy and Python inputs give the same number
+    assert solve(Z=np.int64(2), size=2).energy_hartree == solve(Z=2, size=2).energy_hartree < -2.84765625
+    assert solve(Z=np.float64(2.0), size=2).energy_hartree == solve(Z=2.0, size=2).energy_hartree

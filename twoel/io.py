@@ -22,6 +22,7 @@ import json
 import math
 import os
 import shutil
+import stat
 import tempfile
 from pathlib import Path
 
@@ -90,8 +91,59 @@ def _default_mode(directory: bool = False) -> int:
     return (0o777 if directory else 0o666) & ~mask
 
 
+#: what a path that is not a regular file is, by its ``stat`` mode
+_KINDS = ((stat.S_ISDIR, "a folder"), (stat.S_ISCHR, "a character device"), (stat.S_ISBLK, "a block device"),
+          (stat.S_ISFIFO, "a FIFO (named pipe)"), (stat.S_ISSOCK, "a socket"))
+
+#: the ``format`` field of the provenance record a twoel report folder holds (twoel.report.build)
+REPORT_PROVENANCE_FORMAT = "twoel-report-provenance"
+#: the largest provenance file read to recognise a twoel folder (bytes)
+_PROVENANCE_READ_LIMIT = 64 * 2**20
+
+
+def _kind(mode: int) -> str | None:
+    """Name of a non-regular file type (``None`` for a regular file)."""
+    for test, name in _KINDS:
+        if test(mode):
+            return name
+    return None if stat.S_ISREG(mode) else "not a regular file"
+
+
+def _check_folder(target: Path, folder: Path) -> None:
+    """Refuse (one line) a missing folder, a 'folder' that is a file, or one that cannot be written."""
+    try:
+        info = os.stat(folder)
+    except FileNotFoundError:
+        raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r} does not exist") from None
+    except NotADirectoryError:
+        raise InputError(f"cannot write {str(target)!r}: {str(folder)!r} lies under a file, "
+                         "not a folder") from None
+    except OSError as exc:
+        raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r}: {exc.strerror}") from None
+    if not stat.S_ISDIR(info.st_mode):
+        raise InputError(f"cannot write {str(target)!r}: {str(folder)!r} is a file, not a folder")
+
+
+def _existing_mode(target: Path) -> int | None:
+    """Permission bits of an existing regular ``target`` (``None`` if absent); refuse anything else."""
+    try:
+        info = os.stat(target)
+    except FileNotFoundError:
+        return None
+    except NotADirectoryError:
+        raise InputError(f"cannot write {str(target)!r}: a part of the path is a file, not a folder") from None
+    kind = _kind(info.st_mode)
+    if kind is not None:
+        raise InputError(f"{str(target)!r} is {kind}, not a regular file; refusing to write there")
+    return stat.S_IMODE(info.st_mode)
+
+
 def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
     """Write ``data`` to ``path`` atomically (temporary file + :func:`os.replace`).
+
+    Only a regular file is ever replaced, and it keeps its permission bits; a device, FIFO,
+    socket or folder at ``path`` is refused before anything is written.  A symbolic link to a
+    regular file is followed (the file it names is replaced; the link stays).
 
     Parameters
     ----------
@@ -106,21 +158,31 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
     -------
     pathlib.Path
         The target path.
+
+    Raises
+    ------
+    InputError
+        ``path`` exists and is not a regular file (or ``overwrite`` is false); its folder is
+        missing, is a file, or cannot be written.
     """
     target = Path(path)
-    folder = target.parent if str(target.parent) else Path(".")
-    if not folder.is_dir():
-        raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r} does not exist")
-    if not overwrite and target.exists():
+    real = Path(os.path.realpath(target)) if os.path.islink(target) else target
+    folder = real.parent if str(real.parent) else Path(".")
+    _check_folder(target, folder)
+    mode = _existing_mode(real)
+    if not overwrite and (mode is not None or os.path.lexists(target)):
         raise InputError(f"{str(target)!r} exists; refusing to overwrite it")
-    fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
+    try:
+        fd, tmp_name = tempfile.mkstemp(prefix=f".{real.name}.", suffix=".tmp", dir=folder)
+    except OSError as exc:
+        raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r}: {exc.strerror}") from None
     try:
         with os.fdopen(fd, "wb") as handle:
             handle.write(data)
             handle.flush()
             os.fsync(handle.fileno())
-        os.chmod(tmp_name, target.stat().st_mode & 0o7777 if target.exists() else _default_mode())
-        os.replace(tmp_name, target)
+        os.chmod(tmp_name, _default_mode() if mode is None else mode)
+        os.replace(tmp_name, real)
     except BaseException:
         with contextlib.suppress(FileNotFoundError):
             os.unlink(tmp_name)
@@ -133,28 +195,84 @@ def atomic_write_text(path, text: str, *, encoding: str = "utf-8", overwrite: bo
     return atomic_write_bytes(path, text.encode(encoding), overwrite=overwrite)
 
 
+def _protected(folder: Path) -> str | None:
+    """Why ``folder`` (resolved) must never be replaced, or ``None``."""
+    cwd = Path.cwd().resolve()
+    if folder == Path(folder.anchor):
+        return "the root folder"
+    with contextlib.suppress(RuntimeError, KeyError):
+        home = Path.home().resolve()
+        if folder == home or folder in home.parents:
+            return "the home folder" if folder == home else "a folder holding the home folder"
+    if folder == cwd or folder in cwd.parents:
+        return "the current folder" if folder == cwd else "a folder holding the current folder"
+    return None
+
+
+def is_twoel_folder(path) -> bool:
+    """Whether ``path`` is a folder twoel wrote: it holds a twoel report ``provenance.json``.
+
+    The record must be a JSON object whose ``format`` is :data:`REPORT_PROVENANCE_FORMAT` (the
+    schema of :mod:`twoel.report.build`); an unreadable, oversized or foreign file is not.
+    """
+    record = Path(path) / "provenance.json"
+    try:
+        if not record.is_file() or record.stat().st_size > _PROVENANCE_READ_LIMIT:
+            return False
+        data = json.loads(record.read_bytes().decode("utf-8"))
+    except (OSError, ValueError, RecursionError):
+        return False
+    return isinstance(data, dict) and data.get("format") == REPORT_PROVENANCE_FORMAT
+
+
+def _check_replaceable(target: Path, overwrite: bool) -> None:
+    """Refuse, before anything is touched, a ``target`` folder that may not be replaced."""
+    if not os.path.lexists(target):
+        return
+    if not target.is_dir() or os.path.islink(target):
+        raise InputError(f"{str(target)!r} exists and is not a folder")
+    if not overwrite:
+        raise InputError(f"{str(target)!r} exists; refusing to overwrite it (use --overwrite)")
+    reason = _protected(target.resolve())
+    if reason is not None:
+        raise InputError(f"{str(target)!r} is {reason}; refusing to replace it")
+    if not is_twoel_folder(target):
+        raise InputError(f"{str(target)!r} is not a folder twoel wrote (no twoel provenance.json); "
+                         "refusing to replace it")
+
+
+def _make_parent(target: Path) -> Path:
+    parent = target.parent if str(target.parent) else Path(".")
+    try:
+        parent.mkdir(parents=True, exist_ok=True)
+        return Path(tempfile.mkdtemp(prefix=f".{target.name}.building.", dir=parent))
+    except (FileExistsError, NotADirectoryError):
+        raise InputError(f"cannot create {str(target)!r}: a part of {str(parent)!r} is a file, "
+                         "not a folder") from None
+    except OSError as exc:
+        raise InputError(f"cannot create {str(target)!r} in {str(parent)!r}: {exc.strerror}") from None
+
+
 @contextlib.contextmanager
 def atomic_directory(path, *, overwrite: bool = False):
     """Build a folder in a temporary sibling and move it to ``path`` only on success.
 
     Yields the temporary folder (a :class:`pathlib.Path`) to write into.  On normal exit the
-    folder becomes ``path``; an old ``path`` is replaced only when ``overwrite`` is true (it is
+    folder becomes ``path``; an old ``path`` is replaced only when ``overwrite`` is true and it is
+    a folder twoel wrote (:func:`is_twoel_folder`), never the root, home or current folder (it is
     moved aside first and deleted after the new folder is in place).  On any exception the
     temporary folder is deleted and ``path`` is left as it was.
 
     Raises
     ------
     InputError
-        If ``path`` exists and ``overwrite`` is false, or ``path`` exists but is not a folder.
+        If ``path`` exists and ``overwrite`` is false, ``path`` exists but is not a folder, or is a
+        folder twoel did not write or must never replace; if its parent cannot be made.
     """
     target = Path(path)
-    if target.exists() and not target.is_dir():
-        raise InputError(f"{str(target)!r} exists and is not a folder")
-    if target.exists() and not overwrite:
-        raise InputError(f"{str(target)!r} exists; refusing to overwrite it (use --overwrite)")
+    _check_replaceable(target, overwrite)
     parent = target.parent if str(target.parent) else Path(".")
-    parent.mkdir(parents=True, exist_ok=True)
-    building = Path(tempfile.mkdtemp(prefix=f".{target.name}.building.", dir=parent))
+    building = _make_parent(target)
     os.chmod(building, _default_mode(directory=True))
     try:
         yield building
@@ -163,9 +281,8 @@ def atomic_directory(path, *, overwrite: bool = False):
         raise
     old = None
     try:
-        if target.exists():
-            if not overwrite:  # appeared while building
-                raise InputError(f"{str(target)!r} appeared while building; refusing to overwrite it")
+        if os.path.lexists(target):
+            _check_replaceable(target, overwrite)       # may have appeared or changed while building
             old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
             os.replace(target, old / target.name)
         os.replace(building, target)

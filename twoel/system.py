@@ -9,6 +9,7 @@ two electrons.  A :class:`State` is a term ``n ^(2S+1) L`` such as ``1^1S`` (the
 from __future__ import annotations
 
 import math
+import numbers
 import re
 import unicodedata
 from dataclasses import dataclass
@@ -44,6 +45,28 @@ _SUPERSCRIPTS = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹", "0123456789")
 _L_LETTERS = "SPDFGHIK"
 
 
+def _shown(value) -> str:
+    """``repr`` of a value for a message, shortened when it is a huge number."""
+    text = repr(value)
+    return text if len(text) <= 40 else f"{text[:12]}... ({len(text)} characters)"
+
+
+def _real_charge(value) -> float:
+    """``value`` as a float nuclear charge: any real number type (Python, NumPy, Fraction).
+
+    A number too large for a float is refused here (it would overflow in :func:`float`).
+    """
+    if isinstance(value, bool) or not isinstance(value, numbers.Real):
+        raise InputError(f"'Z' must be a number, got {_shown(value)}")
+    if isinstance(value, numbers.Integral) and abs(int(value)) > 10**300:
+        rule = f"at most {MAX_Z:g} (heaviest known element)" if value > 0 else "a nuclear charge > 0"
+        raise InputError(f"'Z' must be {rule}, got {_shown(value)}")
+    try:
+        return float(value)
+    except (OverflowError, ValueError, TypeError):
+        raise InputError(f"'Z' must be a finite nuclear charge > 0, got {_shown(value)}") from None
+
+
 def _charge_label(charge: float) -> str:
     if charge == 0:
         return ""
@@ -65,14 +88,12 @@ class Ion:
     Z: float
 
     def __post_init__(self) -> None:
-        Z = self.Z
-        if isinstance(Z, bool) or not isinstance(Z, (int, float)):
-            raise InputError(f"'Z' must be a number, got {Z!r}")
+        Z = _real_charge(self.Z)
         if not math.isfinite(Z) or Z <= 0:
-            raise InputError(f"'Z' must be a finite nuclear charge > 0, got {Z!r}")
+            raise InputError(f"'Z' must be a finite nuclear charge > 0, got {_shown(self.Z)}")
         if Z > MAX_Z:
-            raise InputError(f"'Z' must be at most {MAX_Z:g} (heaviest known element), got {Z!r}")
-        object.__setattr__(self, "Z", float(Z))
+            raise InputError(f"'Z' must be at most {MAX_Z:g} (heaviest known element), got {_shown(self.Z)}")
+        object.__setattr__(self, "Z", Z)
 
     @property
     def is_model(self) -> bool:
@@ -118,10 +139,10 @@ def parse_charge(text) -> float:
     """Parse a nuclear charge from a number, digits, element symbol or element name."""
     if isinstance(text, bool):
         raise InputError(f"'Z' must be a number or element symbol, got {text!r}")
-    if isinstance(text, (int, float)):
-        return float(text)
+    if isinstance(text, numbers.Real):
+        return _real_charge(text)
     if not isinstance(text, str):
-        raise InputError(f"'Z' must be a number or element symbol, got {text!r}")
+        raise InputError(f"'Z' must be a number or element symbol, got {_shown(text)}")
     word = text.strip()
     key = word.lower()
     if key in _SYMBOL_TO_Z:
@@ -129,8 +150,11 @@ def parse_charge(text) -> float:
     if key in _NAME_TO_Z:
         return float(_NAME_TO_Z[key])
     if not re.fullmatch(r"[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?", word):
-        raise InputError(f"'Z' must be a number or element symbol, got {text!r}")
-    return float(word)
+        raise InputError(f"'Z' must be a number or element symbol, got {_shown(text)}")
+    value = float(word)
+    if not math.isfinite(value):
+        raise InputError(f"'Z' must be a finite nuclear charge > 0, got {_shown(text)}")
+    return value
 
 
 def parse_charge_range(text: str) -> list[float]:
@@ -148,7 +172,10 @@ def parse_charge_range(text: str) -> list[float]:
             step = parse_charge(fields[2]) if len(fields) == 3 else 1.0
             if step <= 0 or last < first:
                 raise InputError(f"'Z' range {part!r} must increase with a positive step")
-            count = int(math.floor((last - first) / step + 1e-9)) + 1
+            spread = (last - first) / step
+            if not math.isfinite(spread) or spread >= 200:
+                raise InputError(f"'Z' range {part!r} has more than 200 values; at most 200 allowed")
+            count = int(math.floor(spread + 1e-9)) + 1
             if count > 200:
                 raise InputError(f"'Z' range {part!r} has {count} values; at most 200 allowed")
             values.extend(round(first + i * step, 12) for i in range(count))
@@ -178,6 +205,10 @@ class State:
     L: int = 0
 
     def __post_init__(self) -> None:
+        for name in ("n", "multiplicity", "L"):   # NumPy integers are integers too
+            value = getattr(self, name)
+            if isinstance(value, numbers.Integral) and not isinstance(value, (bool, int)):
+                object.__setattr__(self, name, int(value))
         if not isinstance(self.n, int) or self.n < 1:
             raise InputError(f"state 'n' must be an integer >= 1, got {self.n!r}")
         if self.multiplicity not in (1, 3):

@@ -223,3 +223,23 @@ def test_fixed_basis_energy_is_an_upper_bound():
     sol = restricted_energy(2.0, 0.5, 1.5, 8)
     assert sol.energy > PUBLISHED[2][0]
     assert sol.iterations < 50
+
+
+# ----------------------------------------------------------------------------- large charges
+
+@pytest.mark.parametrize("Z", [50.0, 80.0, 118.0])
+def test_large_charges_converge_and_follow_the_1_over_z_expansion(Z):
+    """At large Z the SCF stops at double-precision rounding (the Fock matrix grows like Z²)
+    instead of failing.  E_HF + Z² - 5Z/8 = E2 + E3/Z + ... with E2(HF) = -0.111003 (Linderberg
+    1961, from memory) and |E3/Z| < 3e-5 for Z >= 50: the energy must match to 5e-5 Eh."""
+    result = hartree_fock_limit(Z, sizes=(1, 2, 4, 6))
+    assert result.energy_hartree + Z**2 - 5 * Z / 8 == pytest.approx(-0.111003, abs=5e-5)
+    assert result.energy_hartree > -Z**2                    # above the bare-nucleus bound
+    assert result.virial_ratio == pytest.approx(2.0, abs=1e-8)
+    # a larger fixed basis (the Z-scaled start of 12 and 14 functions, where the SCF used to
+    # stall above its commutator threshold and the whole run failed) converges to the same law
+    from twoel.scf.hartree_fock import _seed
+
+    for n in (12, 14):
+        sol = restricted_energy(Z, *_seed(Z, n), n)
+        assert sol.energy + Z**2 - 5 * Z / 8 == pytest.approx(-0.111003, abs=5e-5)

@@ -9,6 +9,14 @@ blank lines are skipped (both are counted in :class:`EnergyRows`).  JSON: a list
 an object with a ``"rows"`` list.  Energies may be numbers or text such as ``-2.9033``,
 ``-2.9033D+00`` (Fortran exponent) or ``−2.9033`` (Unicode minus); nothing is evaluated.
 
+Units are read by :func:`read_unit`: where the case of a letter changes the unit it is
+significant (``mEh`` is millihartree, ``MEh`` is refused; ``MHz`` is megahertz, ``mHz`` is
+refused), and ``cm⁻¹`` as twoel prints it is accepted.
+
+Line ends may be LF, CRLF or CR alone.  A field longer than :data:`MAX_FIELD_BYTES`, JSON nested
+deeper than :data:`MAX_JSON_DEPTH`, an integer too large for a float, an unreadable or non-UTF-8
+file each raise one :class:`InputError` line.
+
 Every problem is reported with its row (1-based data row, plus the file line for CSV) and
 column, in one :class:`InputError` listing up to :data:`MAX_REPORTED` of them.  Files larger
 than :data:`MAX_BYTES` or with more than :data:`MAX_ROWS` rows raise :class:`ResourceError`.
@@ -26,7 +34,7 @@ from pathlib import Path
 
 from twoel.errors import InputError, ResourceError
 from twoel.system import Ion, State, parse_charge
-from twoel.units import canonical_unit
+from twoel.units import ENERGY_UNITS, canonical_unit
 
 REQUIRED = ("z", "energy", "unit")
 OPTIONAL = ("state", "label")
@@ -38,6 +46,23 @@ MAX_BYTES = 20 * 1024 * 1024
 MAX_ROWS = 100_000
 #: problems listed in one error message
 MAX_REPORTED = 10
+#: the longest field (characters of one CSV cell or JSON string) accepted
+MAX_FIELD_BYTES = 128 * 1024
+#: the deepest nesting of JSON lists/objects accepted (a row file needs 3)
+MAX_JSON_DEPTH = 32
+
+#: spellings whose letter case decides the unit: lower-case key -> (canonical, accepted first
+#: letters, what the refused case would mean)
+_CASE_SENSITIVE = {
+    "meh": ("mhartree", "m", "MEh would be mega-hartree; write mEh for millihartree"),
+    "mha": ("mhartree", "m", "MHa would be mega-hartree; write mEh for millihartree"),
+    "mhartree": ("mhartree", "m", "'M' is mega; write mEh or millihartree for millihartree"),
+    "mhartrees": ("mhartree", "m", "'M' is mega; write mEh or millihartree for millihartree"),
+    "mhz": ("mhz", "M", "mHz is millihertz, which twoel does not take; write MHz for megahertz"),
+    "thz": ("thz", "T", "write THz for terahertz"),
+}
+#: spellings of cm⁻¹ beyond those of :mod:`twoel.units` (as twoel prints it, Unicode minus)
+_WAVENUMBER = {"cm⁻¹", "cm\u207b\u00b9", "cm−1", "cm^−1", "cm^-1", "cm**-1", "1/cm"}
 
 _NUMBER = re.compile(r"[+-]?(\d+(\.\d*)?|\.\d+)([eEdD][+-]?\d+)?")
 
@@ -90,14 +115,47 @@ class _Problems:
         raise InputError(f"{self.source}: {count} problem(s): " + "; ".join(shown) + tail)
 
 
+def read_unit(name) -> str:
+    """Canonical unit name of ``name`` as a person wrote it (see the module docstring).
+
+    The canonical names of :data:`twoel.units.ENERGY_UNITS` are accepted as they are; other
+    spellings whose case changes the meaning must use the right case.
+
+    Raises
+    ------
+    InputError
+        Unknown or ambiguous unit.
+    """
+    if not isinstance(name, str):
+        raise InputError(f"unit must be a string, got {name!r}")
+    text = name.strip()
+    if text in ENERGY_UNITS:
+        return text
+    if text in _WAVENUMBER:
+        return "cm-1"
+    rule = _CASE_SENSITIVE.get(text.lower())
+    if rule is not None:
+        canonical, first, meaning = rule
+        if text[0] != first:
+            raise InputError(f"ambiguous energy unit {text!r}: {meaning}")
+        return canonical
+    return canonical_unit(text)
+
+
 def parse_number(text) -> float:
     """Parse an energy written as a number (no evaluation); raise ``ValueError`` otherwise."""
     if isinstance(text, bool):
         raise ValueError("true/false is not a number")
-    if isinstance(text, (int, float)):
+    if isinstance(text, int):
+        if abs(text) > 10**308:         # a float could not hold it (float() would overflow)
+            raise ValueError(f"an integer of {len(str(abs(text)))} digits is too large for an energy")
+        value = float(text)
+    elif isinstance(text, float):
         value = float(text)
     elif isinstance(text, str):
         word = text.strip().replace("\u2212", "-")
+        if len(word) > 400:
+            raise ValueError(f"a number of {len(word)} characters is not an energy")
         if not _NUMBER.fullmatch(word):
             raise ValueError(f"{text!r} is not a number")
         value = float(word.replace("D", "e").replace("d", "e"))
@@ -146,7 +204,7 @@ def _parse_record(record: dict, row: int, line: int | None, problems: _Problems,
     if not missing("unit"):
         raw = record["unit"]
         try:
-            unit = canonical_unit(raw if isinstance(raw, str) else str(raw))
+            unit = read_unit(raw if isinstance(raw, str) else str(raw))
         except InputError as exc:
             problems.add(f"{where}, column '{columns.get('unit', 'unit')}': {exc}")
     state = "1^1S"
@@ -178,6 +236,25 @@ def _normalize_header(names, problems: _Problems, where: str) -> tuple[list[str]
     return keys, display
 
 
+def _csv_records(reader, source: str):
+    """The records of ``reader``; a malformed or oversized field is one :class:`InputError`."""
+    previous = csv.field_size_limit(MAX_FIELD_BYTES)
+    try:
+        while True:
+            try:
+                fields = next(reader)
+            except StopIteration:
+                return
+            except csv.Error as exc:
+                text = str(exc)
+                if "field larger" in text:
+                    text = f"a field is longer than {MAX_FIELD_BYTES // 1024} KiB"
+                raise InputError(f"{source}: line {reader.line_num}: {text}") from None
+            yield fields
+    finally:
+        csv.field_size_limit(previous)
+
+
 def parse_csv_text(text: str, source: str = "<csv>") -> EnergyRows:
     """Parse CSV text into checked :class:`EnergyRow` objects (see the module docstring)."""
     problems = _Problems(source)
@@ -188,8 +265,8 @@ def parse_csv_text(text: str, source: str = "<csv>") -> EnergyRows:
     header = None
     rows: list[EnergyRow] = []
     count = 0
-    reader = csv.reader(io.StringIO(text))
-    for fields in reader:
+    reader = csv.reader(io.StringIO(text, newline=None))   # LF, CRLF and CR-only line ends
+    for fields in _csv_records(reader, source):
         line = reader.line_num
         if not fields or all(not f.strip() for f in fields):
             blanks += 1
@@ -227,14 +304,51 @@ def parse_csv_text(text: str, source: str = "<csv>") -> EnergyRows:
     return EnergyRows(tuple(rows), source, "csv", comments, blanks)
 
 
+def _json_depth_and_longest(data) -> tuple[int, int]:
+    """Deepest nesting of lists/objects and the longest string (key or value), without recursion."""
+    depth = longest = 0
+    stack = [(data, 1)]
+    while stack:
+        item, level = stack.pop()
+        if isinstance(item, str):
+            longest = max(longest, len(item))
+        elif isinstance(item, (list, dict)):
+            depth = max(depth, level)
+            if depth > MAX_JSON_DEPTH:
+                break
+            values = item.items() if isinstance(item, dict) else ((None, v) for v in item)
+            for key, value in values:
+                if isinstance(key, str):
+                    longest = max(longest, len(key))
+                stack.append((value, level + 1))
+    return depth, longest
+
+
+def _load_json(text: str, source: str):
+    """Decode JSON text, refusing (one line) bad syntax, deep nesting, huge numbers and fields."""
+    try:
+        data = json.loads(text, parse_constant=lambda name: name)  # NaN/Infinity stay text
+    except json.JSONDecodeError as exc:
+        raise InputError(f"{source}: not valid JSON (line {exc.lineno}, column {exc.colno}: "
+                         f"{exc.msg})") from None
+    except RecursionError:
+        raise InputError(f"{source}: JSON nested too deeply (a row file needs {MAX_JSON_DEPTH} "
+                         "levels at most)") from None
+    except ValueError as exc:           # e.g. an integer beyond Python's digit limit
+        raise InputError(f"{source}: not valid JSON: {str(exc).splitlines()[0]}") from None
+    depth, longest = _json_depth_and_longest(data)
+    if depth > MAX_JSON_DEPTH:
+        raise InputError(f"{source}: JSON nested more than {MAX_JSON_DEPTH} levels deep")
+    if longest > MAX_FIELD_BYTES:
+        raise InputError(f"{source}: a JSON string is longer than {MAX_FIELD_BYTES // 1024} KiB")
+    return data
+
+
 def parse_json_text(text: str, source: str = "<json>") -> EnergyRows:
     """Parse JSON text (a list of row objects, or ``{"rows": [...]}``)."""
     if not text.strip():
         raise InputError(f"{source}: the file is empty (expected a JSON list of rows)")
-    try:
-        data = json.loads(text, parse_constant=lambda name: name)  # NaN/Infinity stay text
-    except json.JSONDecodeError as exc:
-        raise InputError(f"{source}: not valid JSON (line {exc.lineno}, column {exc.colno}: {exc.msg})")
+    data = _load_json(text, source)
     if isinstance(data, dict):
         if "rows" not in data:
             raise InputError(f"{source}: a JSON object must have a 'rows' list")
@@ -277,16 +391,23 @@ def read_rows(path) -> EnergyRows:
     """Read a CSV or JSON file of energies (format from the suffix, else from the content)."""
     path = Path(path)
     if not path.is_file():
-        raise InputError(f"no such file: {str(path)!r}")
-    size = path.stat().st_size
-    if size > MAX_BYTES:
-        raise ResourceError(f"{path.name}: file of {size / 2**20:.1f} MiB exceeds the limit of "
-                            f"{MAX_BYTES // 2**20} MiB; split it")
-    raw = path.read_bytes()
+        kind = "not a regular file" if path.exists() else "no such file"
+        raise InputError(f"{kind}: {str(path)!r}")
+    try:
+        size = path.stat().st_size
+        if size > MAX_BYTES:
+            raise ResourceError(f"{path.name}: file of {size / 2**20:.1f} MiB exceeds the limit of "
+                                f"{MAX_BYTES // 2**20} MiB; split it")
+        with path.open("rb") as handle:
+            raw = handle.read(MAX_BYTES + 1)
+    except OSError as exc:
+        raise InputError(f"cannot read {str(path)!r}: {exc.strerror or exc}") from None
+    if len(raw) > MAX_BYTES:
+        raise ResourceError(f"{path.name}: file exceeds the limit of {MAX_BYTES // 2**20} MiB; split it")
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
-        raise InputError(f"{path.name}: not UTF-8 text (byte {exc.start})")
+        raise InputError(f"{path.name}: not UTF-8 text (byte {exc.start}); save it as UTF-8") from None
     suffix = path.suffix.lower()
     if suffix == ".json" or (suffix != ".csv" and text.lstrip()[:1] in ("[", "{")):
         return parse_json_text(text, path.name)

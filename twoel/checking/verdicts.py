@@ -26,12 +26,12 @@ import re
 from dataclasses import dataclass, field
 from typing import ClassVar
 
-from twoel.checking.rows import EnergyRow
+from twoel.checking.rows import EnergyRow, read_unit
 from twoel.scf.correlation import exact_reference, hartree_fock_reference
 from twoel.errors import InputError
 from twoel.results import Result, agreeing_digits
 from twoel.system import Ion, State
-from twoel.units import ENERGY_UNITS, UNIT_LABELS, canonical_unit, convert_energy, to_hartree
+from twoel.units import ENERGY_UNITS, UNIT_LABELS, convert_energy, to_hartree
 
 #: plausible window for ``E / E_reference`` of a total energy
 PLAUSIBLE_RATIO = (0.7, 1.1)
@@ -301,7 +301,7 @@ def check_energy(Z, energy: float, unit: str = "hartree", state: str = "1^1S", l
     """
     ion = Ion.parse(Z)
     st = State.parse(state)
-    unit = canonical_unit(unit)
+    unit = read_unit(unit)
     if isinstance(energy, bool) or not isinstance(energy, (int, float)) or not math.isfinite(energy):
         raise InputError(f"'energy' must be a finite number, got {energy!r}")
     e_h = float(to_hartree(energy, unit))
@@ -310,9 +310,12 @@ def check_energy(Z, energy: float, unit: str = "hartree", state: str = "1^1S", l
     rounding = _printed_half_unit(energy_text, unit)
 
     unit_ok, suggested, unit_flags = _unit_verdict(energy, unit, e_h, ion, st, exact)
-    error, digits, exact_flags = _exact_verdict(e_h, exact, unit_ok, rounding, ion, st)
-    error_hf, corr, percent, hf_flags = _hartree_fock_verdict(e_h, hf, exact, unit_ok, rounding, ion, st)
-    flags = unit_flags + exact_flags + hf_flags + _binding_flags(e_h, unit_ok, ion)
+    # the value as given is judged unless another unit explains it (then the flags would pile up
+    # on a misread number); an implausible value in every unit is still below exact or unbound
+    judged = unit_ok or suggested is None
+    error, digits, exact_flags = _exact_verdict(e_h, exact, judged, rounding, ion, st)
+    error_hf, corr, percent, hf_flags = _hartree_fock_verdict(e_h, hf, exact, judged, rounding, ion, st)
+    flags = unit_flags + exact_flags + hf_flags + _binding_flags(e_h, judged, ion)
 
     return CheckResult(
         Z=ion.Z, ion=ion.label, state=st.label, label=label, energy_input=float(energy),

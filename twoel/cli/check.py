@@ -31,6 +31,17 @@ def add_parser(subparsers) -> None:
     p.set_defaults(run=run)
 
 
+#: first characters that make a spreadsheet read a cell as a formula (common practice: OWASP
+#: "CSV injection"); such a label is written with a leading apostrophe
+FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+
+
+def spreadsheet_safe(text) -> str:
+    """``text`` with a leading ``'`` when a spreadsheet would read it as a formula."""
+    text = "" if text is None else str(text)
+    return "'" + text if text.startswith(FORMULA_STARTS) else text
+
+
 def _table_text(results, header: str | None) -> str:
     from twoel.checking.verdicts import results_frame
     from twoel.report.tables import to_markdown
@@ -96,6 +107,7 @@ def run(args: argparse.Namespace) -> int:
         text = dumps_json(payload) + "\n"
     elif fmt == "csv":
         frame = results_frame(results)
+        frame["label"] = [spreadsheet_safe(label) for label in frame["label"]]
         frame["flag_explanations"] = [" | ".join(f.explanation for f in r.flags) for r in results]
         text = to_csv(frame)
     else:

@@ -17,14 +17,38 @@ class TwoelArgumentParser(argparse.ArgumentParser):
         self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
 
 
+#: the largest integer any integer option accepts (far beyond any sensible size, count or job number)
+MAX_OPTION_INT = 10**9
+#: the most entries a size list (``--sizes``) may expand to
+MAX_SIZE_COUNT = 1000
+#: the largest basis size a size list accepts (twoel's largest bases hold a few thousand functions)
+MAX_LIST_SIZE = 100_000
+#: the most explicit terms ``--terms`` accepts (the correlated basis holds at most 6000 primitives)
+MAX_TERM_COUNT = 6000
+#: the largest power in ``--terms``: ω ≤ 16 is the family's range, and powers near 100 overflow
+#: the double-precision factorials of the integrals (common practice: refuse long before)
+MAX_TERM_POWER = 60
+
+
+def _bounded_int(text: str, maximum: int, what: str) -> int:
+    """``int(text)`` of a plain digit string, refused (before conversion) when above ``maximum``."""
+    text = text.strip()
+    if not text.isdigit():
+        raise argparse.ArgumentTypeError(f"{what} must be a non-negative integer, got {text[:40]!r}")
+    digits = text.lstrip("0") or "0"
+    if len(digits) > len(str(maximum)) or int(digits) > maximum:
+        shown = digits if len(digits) <= 30 else f"{digits[:12]}... ({len(digits)} digits)"
+        raise argparse.ArgumentTypeError(f"{what} must be at most {maximum}, got {shown}")
+    return int(digits)
+
+
 def positive_int(text: str) -> int:
-    try:
-        value = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"must be an integer, got {text!r}")
-    if value < 0:
-        raise argparse.ArgumentTypeError(f"must be >= 0, got {value}")
-    return value
+    stripped = text.strip()
+    if stripped.startswith("-") and stripped[1:].isdigit():
+        raise argparse.ArgumentTypeError(f"must be >= 0, got {stripped[:40]}")
+    if not stripped.lstrip("+").isdigit():
+        raise argparse.ArgumentTypeError(f"must be an integer, got {text[:40]!r}")
+    return _bounded_int(stripped.lstrip("+"), MAX_OPTION_INT, "the value")
 
 
 def charge(text: str) -> float:
@@ -63,17 +87,22 @@ def parameter_assignment(text: str) -> tuple[str, float]:
 
 
 def term_list(text: str) -> list[tuple[int, int, int]]:
-    """Parse ``"0,0,0;0,0,1;0,2,0"`` into integer triples (no evaluation)."""
+    """Parse ``"0,0,0;0,0,1;0,2,0"`` into integer triples (no evaluation).
+
+    At most :data:`MAX_TERM_COUNT` terms, each power at most :data:`MAX_TERM_POWER`; both are
+    checked before any number is converted.
+    """
+    chunks = [chunk.strip() for chunk in text.split(";") if chunk.strip()]
+    if len(chunks) > MAX_TERM_COUNT:
+        raise argparse.ArgumentTypeError(f"at most {MAX_TERM_COUNT} terms, got {len(chunks)}")
     terms = []
-    for chunk in text.split(";"):
-        chunk = chunk.strip()
-        if not chunk:
-            continue
+    for chunk in chunks:
         parts = [p.strip() for p in chunk.split(",")]
         if len(parts) != 3 or not all(p.isdigit() for p in parts):
             raise argparse.ArgumentTypeError(f"each term must be three non-negative integers "
-                                             f"'i,j,k', got {chunk!r}")
-        terms.append(tuple(int(p) for p in parts))
+                                             f"'i,j,k', got {chunk[:60]!r}")
+        terms.append(tuple(_bounded_int(p, MAX_TERM_POWER, f"each power of term {chunk[:60]!r}")
+                           for p in parts))
     if not terms:
         raise argparse.ArgumentTypeError("the term list is empty")
     return terms
@@ -202,25 +231,31 @@ def energy_line(label: str, value_hartree: float | None, units=("hartree", "ev",
     return f"{label}: " + " = ".join(parts)
 
 
-def size_list(text: str) -> tuple[int, ...]:
-    """Parse basis sizes ``"1,2,4:14:2"`` (ranges inclusive) into increasing integers (no evaluation)."""
-    sizes: list[int] = []
-    for part in text.split(","):
-        part = part.strip()
-        if not part:
-            continue
-        fields = part.split(":")
-        if not all(f.strip().isdigit() for f in fields) or len(fields) > 3:
-            raise argparse.ArgumentTypeError(f"sizes must be integers or ranges 'first:last[:step]', "
-                                             f"got {part!r}")
-        numbers = [int(f) for f in fields]
-        if len(numbers) == 1:
-            sizes.append(numbers[0])
-        else:
-            step = numbers[2] if len(numbers) == 3 else 1
-            if step < 1 or numbers[1] < numbers[0]:
-                raise argparse.ArgumentTypeError(f"range {part!r} must increase with a step >= 1")
-            sizes.extend(range(numbers[0], numbers[1] + 1, step))
+def _size_part(part: str, maximum: int) -> tuple[int, int, int]:
+    """``(first, last, step)`` of one item of a size list, bounded before anything is expanded."""
+    fields = part.split(":")
+    if len(fields) > 3 or not all(f.strip().isdigit() for f in fields):
+        raise argparse.ArgumentTypeError(f"sizes must be integers or ranges 'first:last[:step]', "
+                                         f"got {part[:60]!r}")
+    first = _bounded_int(fields[0], maximum, "each size")
+    last = _bounded_int(fields[1], maximum, "each size") if len(fields) > 1 else first
+    step = _bounded_int(fields[2], MAX_OPTION_INT, "the step of a range") if len(fields) == 3 else 1
+    if len(fields) > 1 and (step < 1 or last < first):
+        raise argparse.ArgumentTypeError(f"range {part!r} must increase with a step >= 1")
+    return first, last, step
+
+
+def size_list(text: str, maximum: int = MAX_LIST_SIZE) -> tuple[int, ...]:
+    """Parse basis sizes ``"1,2,4:14:2"`` (ranges inclusive) into increasing integers (no evaluation).
+
+    Every size is at most ``maximum`` and the list at most :data:`MAX_SIZE_COUNT` long; both are
+    checked on the text, before a range is expanded.
+    """
+    ranges = [_size_part(part.strip(), maximum) for part in text.split(",") if part.strip()]
+    count = sum((last - first) // step + 1 for first, last, step in ranges)
+    if count > MAX_SIZE_COUNT:
+        raise argparse.ArgumentTypeError(f"at most {MAX_SIZE_COUNT} sizes, got {count} from {text[:60]!r}")
+    sizes = [n for first, last, step in ranges for n in range(first, last + 1, step)]
     if not sizes:
         raise argparse.ArgumentTypeError("the list of sizes is empty")
     return tuple(sizes)

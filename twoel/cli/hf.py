@@ -12,11 +12,18 @@ NAME = "hf"
 HELP = "restricted Hartree-Fock limit of the 1s² ground state (even-tempered Slater basis)"
 
 
+def hf_size_list(text: str) -> tuple[int, ...]:
+    """``--sizes`` of ``twoel hf``: a size list whose sizes lie in 1..MAX_SIZE of the SCF basis."""
+    from twoel.scf.hartree_fock import MAX_SIZE
+
+    return size_list(text, maximum=MAX_SIZE)
+
+
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP + ". The energy is converged over "
                               "basis sizes and the convergence table is printed.")
     add_charge_argument(p, required=False)
-    p.add_argument("--sizes", type=size_list, default=None,
+    p.add_argument("--sizes", type=hf_size_list, default=None,
                    help="basis sizes of the convergence study, e.g. '1,2,4:14:2' (the default)")
     p.add_argument("--split-shell", action="store_true",
                    help="instead: the split-shell variant (different orbitals, singlet-coupled); "

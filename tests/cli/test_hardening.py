@@ -1,0 +1,222 @@
+"""Bad input to twoel's writers, size options and API numbers: one-line refusals, never a traceback.
+
+Every path here lies in pytest's ``tmp_path`` or certainly does not exist; the "device" case is
+a FIFO made in ``tmp_path`` (nothing outside the temporary folder is touched).
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import stat
+
+import pytest
+
+from twoel import io as tio
+from twoel.cli import main
+from twoel.errors import InputError
+
+
+def run(capsys, *argv):
+    try:
+        code = main(list(argv))
+    except SystemExit as exc:
+        code = exc.code
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def one_line_refusal(code, err):
+    assert code == 2, err
+    assert err.startswith("twoel: error: ") and err.count("\n") == 1 and "Traceback" not in err
+
+
+# --- 1. safe output -------------------------------------------------------------------------
+
+def test_fifo_and_folder_are_never_replaced(tmp_path):
+    fifo = tmp_path / "pipe"
+    os.mkfifo(fifo)
+    folder = tmp_path / "afolder"
+    folder.mkdir()
+    (folder / "keep.txt").write_text("mine")
+    for target, kind in ((fifo, "FIFO"), (folder, "folder")):
+        with pytest.raises(InputError, match=f"is a.*{kind}.*not a regular file"):
+            tio.atomic_write_text(target, "x\n")
+    assert stat.S_ISFIFO(os.stat(fifo).st_mode)
+    assert (folder / "keep.txt").read_text() == "mine"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["afolder", "pipe"]   # no temporary left
+
+
+def test_fake_character_device_is_refused(tmp_path, monkeypatch):
+    target = tmp_path / "dev-like"
+    target.write_text("untouched")
+    real_stat = os.stat
+
+    def fake_stat(path, *args, **kwargs):
+        info = real_stat(path, *args, **kwargs)
+        if os.fspath(path) == os.fspath(target):
+            return os.stat_result((stat.S_IFCHR | 0o666,) + tuple(info)[1:])
+        return info
+
+    monkeypatch.setattr(tio.os, "stat", fake_stat)
+    with pytest.raises(InputError, match="character device"):
+        tio.atomic_write_bytes(target, b"x")
+    monkeypatch.undo()
+    assert target.read_text() == "untouched"
+
+
+def test_missing_folder_file_parent_and_unwritable_folder(tmp_path, monkeypatch):
+    plain = tmp_path / "plain.txt"
+    plain.write_text("a file")
+    with pytest.raises(InputError, match="does not exist"):
+        tio.atomic_write_text(tmp_path / "missing" / "out.json", "x")
+    with pytest.raises(InputError, match="under a file|is a file"):
+        tio.atomic_write_text(plain / "out.json", "x")
+
+    def denied(*args, **kwargs):     # root ignores permission bits: simulate a read-only folder
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr(tio.tempfile, "mkstemp", denied)
+    with pytest.raises(InputError, match="Permission denied"):
+        tio.atomic_write_text(tmp_path / "out.json", "x")
+    assert plain.read_text() == "a file"
+
+
+def test_cli_output_under_a_file_is_one_line(tmp_path, capsys):
+    plain = tmp_path / "plain.txt"
+    plain.write_text("a file")
+    code, _, err = run(capsys, "check", "--Z", "2", "--energy", "-2.9", "--json",
+                       "--out", str(plain / "x.json"))
+    one_line_refusal(code, err)
+
+
+def test_replaced_file_keeps_its_mode(tmp_path):
+    target = tmp_path / "table.csv"
+    target.write_text("old\n")
+    os.chmod(target, 0o640)
+    tio.atomic_write_text(target, "new\n")
+    assert target.read_text() == "new\n" and stat.S_IMODE(target.stat().st_mode) == 0o640
+    fresh = tmp_path / "fresh.csv"
+    tio.atomic_write_text(fresh, "x")
+    mask = os.umask(0)
+    os.umask(mask)
+    assert stat.S_IMODE(fresh.stat().st_mode) == 0o666 & ~mask
+
+
+def _twoel_folder(path):
+    path.mkdir()
+    (path / "provenance.json").write_text(json.dumps({"format": "twoel-report-provenance",
+                                                      "format_version": 1}))
+    (path / "index.md").write_text("old report")
+
+
+def test_folder_replace_only_of_a_twoel_folder(tmp_path):
+    ours = tmp_path / "report"
+    _twoel_folder(ours)
+    with tio.atomic_directory(ours, overwrite=True) as folder:
+        (folder / "new.txt").write_text("new")
+    assert sorted(p.name for p in ours.iterdir()) == ["new.txt"]
+
+    foreign = tmp_path / "photos"
+    foreign.mkdir()
+    (foreign / "holiday.jpg").write_text("precious")
+    (foreign / "provenance.json").write_text(json.dumps({"format": "something-else"}))
+    with pytest.raises(InputError, match="not a folder twoel wrote"):
+        with tio.atomic_directory(foreign, overwrite=True):
+            raise AssertionError("must refuse before building")
+    assert (foreign / "holiday.jpg").read_text() == "precious"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["photos", "report"]
+
+
+def test_root_home_and_current_folder_are_refused_before_anything(tmp_path, monkeypatch):
+    home = tmp_path / "home"
+    _twoel_folder(home)                      # even a twoel folder is refused when it is home/cwd
+    work = tmp_path / "work"
+    _twoel_folder(work)
+    monkeypatch.setenv("HOME", str(home))
+    monkeypatch.chdir(work)
+    for target, reason in ((home, "home folder"), (work, "current folder"), (".", "current folder"),
+                           (tmp_path, "holding the")):
+        with pytest.raises(InputError, match=reason):
+            with tio.atomic_directory(target, overwrite=True):
+                raise AssertionError("must refuse before building")
+    assert tio._protected(tio.Path("/")) == "the root folder"    # checked on the name only
+    assert (home / "index.md").read_text() == "old report"
+    assert (work / "index.md").read_text() == "old report"
+
+
+# --- 2. bounds before expansion -------------------------------------------------------------
+
+@pytest.mark.parametrize("argv, words", [
+    (("hf", "--Z", "2", "--sizes", "1:100000000"), ("--sizes", "at most 30", "100000000")),
+    (("hf", "--Z", "2", "--sizes", "1," + "9" * 5000), ("--sizes", "at most 30", "5000 digits")),
+    (("energy", "--Z", "2", "--terms", "0,0,99999999999999999999"),
+     ("--terms", "at most 60", "99999999999999999999")),
+    (("energy", "--Z", "2", "--size", "9" * 5000), ("--size", "at most", "5000 digits")),
+])
+def test_huge_sizes_and_powers_are_refused_on_the_text(capsys, argv, words):
+    code, _, err = run(capsys, *argv)
+    assert code == 2 and err.count("\n") == 1 and "Traceback" not in err, err
+    for word in words:
+        assert word in err
+
+
+def test_size_list_counts_a_range_before_expanding_it(monkeypatch):
+    import argparse
+
+    from twoel.cli import common
+
+    built = []
+    real_range = range
+    monkeypatch.setattr(common, "range", lambda *a: built.append(a) or real_range(*a), raising=False)
+    with pytest.raises(argparse.ArgumentTypeError, match="at most 1000 sizes, got 100000"):
+        common.size_list("1:100000")
+    assert built == []                                   # refused before any range was built
+    with pytest.raises(argparse.ArgumentTypeError, match="at most 6000 terms"):
+        common.term_list(";".join(["0,0,1"] * 6001))
+    assert common.size_list("1,2,4:14:2") == (1, 2, 4, 6, 8, 10, 12, 14)
+
+
+# --- 3. the energy checker on the command line ----------------------------------------------
+
+def test_check_csv_escapes_formula_labels(tmp_path, capsys):
+    import csv
+    import io
+
+    rows = tmp_path / "rows.csv"
+    rows.write_text("Z,energy,unit,label\n" + "".join(
+        f"2,-2.9033,hartree,{start}cmd|x\n" for start in ("=", "+", "-", "@")) + "2,-2.9033,hartree,CISD\n")
+    out = tmp_path / "out.csv"
+    code, _, err = run(capsys, "check", "--file", str(rows), "--format", "csv", "--out", str(out))
+    assert code == 0, err
+    labels = [r["label"] for r in csv.DictReader(io.StringIO(out.read_text()))]
+    assert labels == ["'=cmd|x", "'+cmd|x", "'-cmd|x", "'@cmd|x", "CISD"]
+
+
+def test_check_cli_units_and_hostile_files(tmp_path, capsys):
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy", "-2903.3", "--unit", "MEh")
+    one_line_refusal(code, err)
+    assert "ambiguous" in err
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy", str(-2.9033 * 219474.6313632),
+                         "--unit", "cm⁻¹", "--json")
+    assert code == 0 and json.loads(out)["flags"] == [], err
+    deep = tmp_path / "deep.json"
+    deep.write_text("[" * 100_000 + "]" * 100_000)
+    latin = tmp_path / "latin.csv"
+    latin.write_bytes(b"Z,energy,unit,label\n2,-2.9,hartree,M\xf8ller\n")
+    for path in (deep, latin, tmp_path / "no-such-file.csv"):
+        code, _, err = run(capsys, "check", "--file", str(path))
+        one_line_refusal(code, err)
+    code, out, err = run(capsys, "check", "--Z", "2", "--energy=-1e300", "--unit", "Eh", "--json")
+    assert code == 0 and "below_exact" in json.loads(out)["flags"], err
+
+
+# --- 4. hf at large charges -------------------------------------------------------------------
+
+@pytest.mark.slow
+def test_hf_default_sizes_at_z_118(capsys):
+    """Was 'no converged SCF' after tens of seconds; E2(HF) = -0.111003 (from memory) to 5e-5."""
+    code, out, err = run(capsys, "hf", "--Z", "118", "--json", "--quiet")
+    assert code == 0, err
+    energy = json.loads(out)["energy_hartree"]
+    assert energy + 118**2 - 5 * 118 / 8 == pytest.approx(-0.111003, abs=5e-5)
