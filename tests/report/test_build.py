@@ -122,9 +122,17 @@ def test_overwrite_refusal(small_report, tmp_path):
     with pytest.raises(InputError, match="refusing"):
         with tio.atomic_directory(out):
             pass
-    with tio.atomic_directory(out, overwrite=True) as folder:
+    # --overwrite replaces only a folder that twoel wrote: a user's folder is refused too
+    with pytest.raises(InputError):
+        with tio.atomic_directory(out, overwrite=True):
+            pass
+    assert (out / "mine.txt").read_text() == "user data"
+    ours = tmp_path / "ours"
+    ours.mkdir()
+    (ours / "provenance.json").write_text(json.dumps({"format": "twoel-report-provenance"}))
+    with tio.atomic_directory(ours, overwrite=True) as folder:
         (folder / "new.txt").write_text("new")
-    assert sorted(p.name for p in out.iterdir()) == ["new.txt"]
+    assert sorted(p.name for p in ours.iterdir()) == ["new.txt"]
     assert sorted(p.name for p in tmp_path.iterdir() if p.name.startswith(".")) == []
 
 
