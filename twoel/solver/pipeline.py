@@ -133,7 +133,8 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
     options = fam.check_options(options)
     fam.check_state(state)
     if precision == "extended" and "extended" not in fam.precision_paths(state):
-        raise UnsupportedError("precision='extended' needs the exponential family (S states)")
+        raise UnsupportedError(f"precision='extended' is not available for {state.label} with the "
+                               f"{fam.name} family (it needs the exponential family and an S state)")
     params = _starting_parameters(fam, ion, state, size, options, parameters)
     do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
     return _Plan(ion, state, fam, size, options, params, bool(do_optimize and params), precision,
