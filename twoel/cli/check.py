@@ -72,7 +72,6 @@ def run(args: argparse.Namespace) -> int:
     from twoel.checking.rows import parse_number, read_rows
     from twoel.checking.verdicts import check_energy, check_rows, results_frame
     from twoel.errors import InputError
-    from twoel.report.tables import to_csv
 
     fmt = "json" if args.json else args.format
     single = args.file is None
@@ -106,6 +105,8 @@ def run(args: argparse.Namespace) -> int:
         payload = results[0].to_dict() if single else [r.to_dict() for r in results]
         text = dumps_json(payload) + "\n"
     elif fmt == "csv":
+        from twoel.report.tables import to_csv
+
         frame = results_frame(results)
         frame["label"] = [spreadsheet_safe(label) for label in frame["label"]]
         frame["flag_explanations"] = [" | ".join(f.explanation for f in r.flags) for r in results]
