@@ -4,6 +4,8 @@ With ``--from-provenance FILE`` the recorded report is re-run and every block of
 checked (:mod:`twoel.report.reproduce`).  Exit status: 0 reproduced (within tolerance, or bit
 for bit with ``--strict``); 1 not reproduced (the verdict says what differs); 2 bad input
 (e.g. a provenance file of the wrong structure, one line on stderr), as for every command.
+SIGTERM or SIGHUP while the folder is written removes the unfinished folder (as Ctrl-C does)
+and exits with 128 + the signal number.
 """
 
 from __future__ import annotations
@@ -55,10 +57,15 @@ def run(args: argparse.Namespace) -> int:
     if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):
         raise InputError(f"--name must be a plain folder name, got {args.name!r} (use --out for a path)")
     from twoel.cli.progress import counter
+    from twoel.io import BuildStopped
 
-    with counter("report", enabled=not args.quiet, unit="solve") as progress:
-        return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
-                           "progress": progress})
+    try:
+        with counter("report", enabled=not args.quiet, unit="solve") as progress:
+            return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
+                               "progress": progress})
+    except BuildStopped as stop:        # SIGTERM/SIGHUP while the folder was being written
+        sys.stderr.write(f"twoel: {stop}; the unfinished folder was removed\n")
+        return 128 + stop.signum
 
 
 def _run(args: argparse.Namespace, common: dict) -> int:
