@@ -76,3 +76,33 @@ def test_a_signal_in_process_raises_and_cleans_up(tmp_path):
             time.sleep(5)                                # never reached: the handler raises first
     assert isinstance(stop.value, KeyboardInterrupt) and stop.value.signum == signal.SIGTERM
     assert list(tmp_path.iterdir()) == []
+
+
+def _one_core():
+    os.sched_setaffinity(0, {min(os.sched_getaffinity(0))})
+
+
+def test_jobs_are_capped_at_the_usable_cores():
+    cores = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else os.cpu_count()
+    assert sweep.usable_cores() == cores
+    assert sweep.resolve_jobs(10**6, 10**6) == cores
+    assert sweep.resolve_jobs(0, 10**6) == cores
+
+
+@pytest.mark.skipif(not hasattr(os, "sched_setaffinity"), reason="needs CPU affinity")
+def test_jobs_cap_is_said_in_one_line(tmp_path):
+    config = tmp_path / "tiny.json"
+    config.write_text(json.dumps({"name": "tiny", "series": {"Z": [1, 2], "size": 0}}))
+    # a process restricted to one core (as taskset does): asking for 64 workers gives 1
+    run = subprocess.run([sys.executable, "-m", "twoel", "report", "--quiet", "--jobs", "64",
+                          "--config", str(config), "--out", str(tmp_path / "r")],
+                         cwd=tmp_path, env=_env(), capture_output=True, text=True,
+                         preexec_fn=_one_core, timeout=120)
+    assert run.returncode == 0, run.stderr
+    assert run.stderr.splitlines() == ["twoel: --jobs 64 capped at 1, the cores this process may use"]
+    assert (tmp_path / "r" / "provenance.json").is_file()
+    quiet = subprocess.run([sys.executable, "-m", "twoel", "report", "--quiet", "--jobs", "1",
+                            "--config", str(config), "--out", str(tmp_path / "r1")],
+                           cwd=tmp_path, env=_env(), capture_output=True, text=True,
+                           preexec_fn=_one_core, timeout=120)
+    assert quiet.returncode == 0 and quiet.stderr == ""

@@ -39,7 +39,8 @@ def add_parser(subparsers) -> None:
     add_output_arguments(p, what="the folder to write", group=where)
     p.add_argument("--html", action="store_true", help="also write index.html")
     p.add_argument("--jobs", type=positive_int, default=1,
-                   help="worker processes (default 1 = serial; 0 = one per core); same numbers")
+                   help="worker processes (default 1 = serial; 0 = one per usable core; capped at the "
+                        "usable cores); same numbers")
     p.add_argument("--strict", action="store_true",
                    help="with --from-provenance: compare every number bit for bit instead of "
                         "within its own tolerance")
@@ -56,8 +57,14 @@ def _target(args, name: str) -> Path:
 def run(args: argparse.Namespace) -> int:
     if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):
         raise InputError(f"--name must be a plain folder name, got {args.name!r} (use --out for a path)")
+    from twoel.analysis.sweep import usable_cores
     from twoel.cli.progress import counter
     from twoel.io import BuildStopped
+
+    cores = usable_cores()
+    if args.jobs > cores:
+        sys.stderr.write(f"twoel: --jobs {args.jobs} capped at {cores}, the cores this process may use\n")
+        args.jobs = cores
 
     try:
         with counter("report", enabled=not args.quiet, unit="solve") as progress:
