@@ -304,6 +304,21 @@ def _signals_stop_the_build():
 
 
 @contextlib.contextmanager
+def _signals_held():
+    """Hold back :data:`CLEANUP_SIGNALS` while inside (delivered on the way out); a no-op where
+    :func:`signal.pthread_sigmask` does not exist."""
+    numbers = {getattr(signal, name) for name in CLEANUP_SIGNALS if hasattr(signal, name)}
+    if not hasattr(signal, "pthread_sigmask") or not numbers:
+        yield
+        return
+    previous = signal.pthread_sigmask(signal.SIG_BLOCK, numbers)
+    try:
+        yield
+    finally:
+        signal.pthread_sigmask(signal.SIG_SETMASK, previous)
+
+
+@contextlib.contextmanager
 def atomic_directory(path, *, overwrite: bool = False):
     """Build a folder in a temporary sibling and move it to ``path`` only on success.
 
@@ -330,27 +345,37 @@ def atomic_directory(path, *, overwrite: bool = False):
 
 @contextlib.contextmanager
 def _atomic_directory(target: Path, overwrite: bool):
-    """:func:`atomic_directory` without the signal handling."""
+    """:func:`atomic_directory` without the signal handlers.
+
+    The temporary folders are made, and the result moved into place, with SIGTERM and SIGHUP
+    held back (:func:`_signals_held`): such a signal then arrives when the step is done, never
+    between making a folder and knowing its name.
+    """
     parent = target.parent if str(target.parent) else Path(".")
-    building = _make_parent(target)
-    os.chmod(building, _default_mode(directory=True))
+    building = None
     try:
+        with _signals_held():
+            building = _make_parent(target)
+            os.chmod(building, _default_mode(directory=True))
         yield building
     except BaseException:
-        shutil.rmtree(building, ignore_errors=True)
+        if building is not None:
+            shutil.rmtree(building, ignore_errors=True)
         raise
     old = None
     try:
-        if os.path.lexists(target):
-            _check_replaceable(target, overwrite)       # may have appeared or changed while building
-            old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
-            os.replace(target, old / target.name)
-        os.replace(building, target)
-    except BaseException:
-        shutil.rmtree(building, ignore_errors=True)
-        if old is not None and not target.exists():
-            os.replace(old / target.name, target)
-        raise
+        with _signals_held():
+            try:
+                if os.path.lexists(target):
+                    _check_replaceable(target, overwrite)   # may have appeared or changed while building
+                    old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
+                    os.replace(target, old / target.name)
+                os.replace(building, target)
+            except BaseException:
+                shutil.rmtree(building, ignore_errors=True)
+                if old is not None and not target.exists():
+                    os.replace(old / target.name, target)
+                raise
     finally:
         if old is not None:
             shutil.rmtree(old, ignore_errors=True)

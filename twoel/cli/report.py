@@ -71,7 +71,7 @@ def run(args: argparse.Namespace) -> int:
             return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
                                "progress": progress})
     except BuildStopped as stop:        # SIGTERM/SIGHUP while the folder was being written
-        sys.stderr.write(f"twoel: {stop}; the unfinished folder was removed\n")
+        sys.stderr.write(f"twoel: {stop}; no unfinished folder is left behind\n")
         return 128 + stop.signum
 
 
