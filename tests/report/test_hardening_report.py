@@ -27,8 +27,9 @@ def _env():
     return {**os.environ, "PYTHONPATH": str(ROOT), "OPENBLAS_NUM_THREADS": "1"}
 
 
-@pytest.mark.parametrize("signum", [signal.SIGTERM, signal.SIGHUP])
-def test_a_signal_during_the_build_removes_the_hidden_folder(tmp_path, signum):
+@pytest.mark.parametrize("signum, delay", [(signal.SIGTERM, 0.0), (signal.SIGHUP, 0.0),
+                                           (signal.SIGTERM, 0.3)])
+def test_a_signal_during_the_build_removes_the_hidden_folder(tmp_path, signum, delay):
     config = tmp_path / "slow.json"
     config.write_text(json.dumps(SLOW))
     out = tmp_path / "reports" / "slow"
@@ -42,6 +43,8 @@ def test_a_signal_during_the_build_removes_the_hidden_folder(tmp_path, signum):
             assert proc.poll() is None, "the build ended before its hidden folder was seen"
             assert time.monotonic() < deadline, "no hidden folder appeared"
             time.sleep(0.002)
+        time.sleep(delay)                               # 0: as the folder is made; 0.3 s: mid-write
+        assert proc.poll() is None
         sent = time.monotonic()
         proc.send_signal(signum)
         _stdout, stderr = proc.communicate(timeout=20)
@@ -106,3 +109,86 @@ def test_jobs_cap_is_said_in_one_line(tmp_path):
                            cwd=tmp_path, env=_env(), capture_output=True, text=True,
                            preexec_fn=_one_core, timeout=120)
     assert quiet.returncode == 0 and quiet.stderr == ""
+
+
+@pytest.mark.parametrize("section, value", [
+    ("series", {"Z": [1, 2], "optimize": "no"}),
+    ("convergence", {"Z": 2, "sizes": [0, 1], "optimize": "false"}),
+    ("levels", {"Z": 2, "states": ["1^1S"], "optimize": 0}),
+])
+def test_optimize_must_be_a_boolean(section, value):
+    with pytest.raises(InputError, match=rf"{section}\.optimize must be true or false"):
+        build.normalize_config({section: value})
+    build.normalize_config({section: {**value, "optimize": False}})     # a real boolean is fine
+
+
+def _no_solving(monkeypatch):
+    def refuse(*_args, **_kwargs):
+        raise AssertionError("a solve started before the configuration was checked")
+
+    monkeypatch.setattr(sweep, "solve_many", refuse)
+
+
+@pytest.mark.parametrize("config, match", [
+    # hylleraas ω runs 0..16, exponential N 4..3000: the last entry is the typo
+    ({"convergence": {"Z": 2, "family": "hylleraas", "sizes": [0, 1, 2, 3, 4, 5, 60]}},
+     r"convergence\.sizes\[6\]: 'size'.*got 60"),
+    ({"levels": {"Z": 2, "family": "exponential",
+                 "states": [{"state": "1^1S", "size": 200}, {"state": "2^1S", "size": 2}]}},
+     r"levels\.states\[1\]: 'size'.*got 2"),
+    ({"levels": {"Z": 2, "states": ["1^1S", "2^3Q"]}}, r"levels\.states\[1\]"),
+    ({"series": {"Z": "1:4", "family": "hylleras"}}, r"series at Z = 1: unknown family"),
+    ({"series": {"Z": [1, 2], "parameters": {"alpha": "x"}}}, r"series\.parameters\.alpha"),
+])
+def test_every_task_is_checked_before_any_solve(tmp_path, monkeypatch, config, match):
+    _no_solving(monkeypatch)
+    with pytest.raises(InputError, match=match):
+        build.build_report({"name": "typo", **config}, tmp_path / "typo")
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_a_late_size_typo_fails_at_once_on_the_command_line(tmp_path):
+    config = tmp_path / "typo.json"
+    # ω = 12 alone takes many seconds; the typo after it must fail before it is solved
+    config.write_text(json.dumps({"name": "typo", "convergence": {"Z": 2, "sizes": [10, 11, 12, 130]}}))
+    started = time.monotonic()
+    run = subprocess.run([sys.executable, "-m", "twoel", "report", "--quiet", "--config", str(config),
+                          "--out", str(tmp_path / "r")], cwd=tmp_path, env=_env(),
+                         capture_output=True, text=True, timeout=120)
+    assert run.returncode == 2
+    assert run.stderr.count("\n") == 1 and "convergence.sizes[3]" in run.stderr
+    assert "Traceback" not in run.stderr
+    assert time.monotonic() - started < 15
+    assert not (tmp_path / "r").exists()
+
+
+def test_levels_that_are_not_bound_say_so_in_the_tables_and_index(tmp_path):
+    # Below the critical charge Zc = 0.911 028 2 (Estienne, Busuttil, Moini, Drake, Phys. Rev. Lett.
+    # 112, 173001 (2014)) a two-electron ion has no bound state: every variational energy at
+    # Z = 0.5 lies above -Z²/2 = -0.125 Eh.  H- (Z = 1 > Zc) is bound.
+    out = tmp_path / "weak"
+    build.build_report({"name": "weak", "series": {"Z": [0.5, 1], "size": 1},
+                        "levels": {"Z": 0.5, "family": "hylleraas",
+                                   "states": [{"state": "1^1S", "size": 2}]}}, out)
+    series = (out / "tables" / "series.md").read_text(encoding="utf-8").splitlines()
+    assert series[0].rstrip(" |").endswith("bound")
+    rows = {line.split("|")[1].strip(): line for line in series[2:4]}
+    assert rows["0.5"].rstrip(" |").endswith("not bound")
+    assert rows["1"].rstrip(" |").endswith("yes")
+    levels = (out / "tables" / "levels.md").read_text(encoding="utf-8").splitlines()
+    assert levels[2].rstrip(" |").endswith("not bound")
+    tex = (out / "tables" / "levels.tex").read_text(encoding="utf-8")
+    assert "& not bound \\\\" in tex
+    index = (out / "index.md").read_text(encoding="utf-8")
+    assert index.count("is not bound in this basis") == 2        # Z = 0.5 at sizes 1 and 2
+    assert "Z=0.5 1^1S (size 2) is not bound" in index and "H- 1^1S (size 1) is not bound" not in index
+    # the machine-readable tables keep their boolean column
+    assert (out / "tables" / "levels.csv").read_text(encoding="utf-8").splitlines()[1].count(",False,") == 1
+
+
+def test_bound_levels_keep_their_tables_unchanged(tmp_path):
+    out = tmp_path / "he"
+    build.build_report({"name": "he", "series": {"Z": [2], "size": 1}}, out)
+    header = (out / "tables" / "series.md").read_text(encoding="utf-8").splitlines()[0]
+    assert "bound" not in header
+    assert "not bound" not in (out / "index.md").read_text(encoding="utf-8")
