@@ -22,6 +22,7 @@ import json
 import math
 import os
 import shutil
+import signal
 import stat
 import tempfile
 from pathlib import Path
@@ -253,6 +254,70 @@ def _make_parent(target: Path) -> Path:
         raise InputError(f"cannot create {str(target)!r} in {str(parent)!r}: {exc.strerror}") from None
 
 
+#: signals that stop a folder build the way Ctrl-C (SIGINT) does: the temporary folder is removed
+CLEANUP_SIGNALS = ("SIGTERM", "SIGHUP")
+
+
+class BuildStopped(KeyboardInterrupt):
+    """A folder build stopped by a signal of :data:`CLEANUP_SIGNALS` (``signum`` says which).
+
+    A :class:`KeyboardInterrupt`, so every caller that cleans up after Ctrl-C cleans up after it.
+    """
+
+    def __init__(self, signum: int):
+        self.signum = int(signum)
+        super().__init__(f"stopped by {signal.Signals(self.signum).name}")
+
+
+@contextlib.contextmanager
+def _signals_stop_the_build():
+    """While inside, SIGTERM and SIGHUP raise :class:`BuildStopped`; the old handlers come back after.
+
+    Only signals whose handler is the default (termination) are taken over: an ignored signal
+    (e.g. SIGHUP under ``nohup``) or one a caller handles stays as it is.  Outside the main
+    thread nothing changes (Python delivers signals to the main thread only).  A second signal
+    while the first is being handled (the cleanup is running) is not raised again.
+    """
+    import threading
+
+    if threading.current_thread() is not threading.main_thread():
+        yield
+        return
+    stopping = []
+
+    def handler(signum, _frame):
+        if stopping:
+            return
+        stopping.append(signum)
+        raise BuildStopped(signum)
+
+    previous = {}
+    try:
+        for name in CLEANUP_SIGNALS:
+            number = getattr(signal, name, None)
+            if number is not None and signal.getsignal(number) is signal.SIG_DFL:
+                previous[number] = signal.signal(number, handler)
+        yield
+    finally:
+        for number, old in previous.items():
+            signal.signal(number, old)
+
+
+@contextlib.contextmanager
+def _signals_held():
+    """Hold back :data:`CLEANUP_SIGNALS` while inside (delivered on the way out); a no-op where
+    :func:`signal.pthread_sigmask` does not exist."""
+    numbers = {getattr(signal, name) for name in CLEANUP_SIGNALS if hasattr(signal, name)}
+    if not hasattr(signal, "pthread_sigmask") or not numbers:
+        yield
+        return
+    previous = signal.pthread_sigmask(signal.SIG_BLOCK, numbers)
+    try:
+        yield
+    finally:
+        signal.pthread_sigmask(signal.SIG_SETMASK, previous)
+
+
 @contextlib.contextmanager
 def atomic_directory(path, *, overwrite: bool = False):
     """Build a folder in a temporary sibling and move it to ``path`` only on success.
@@ -261,7 +326,9 @@ def atomic_directory(path, *, overwrite: bool = False):
     folder becomes ``path``; an old ``path`` is replaced only when ``overwrite`` is true and it is
     a folder twoel wrote (:func:`is_twoel_folder`), never the root, home or current folder (it is
     moved aside first and deleted after the new folder is in place).  On any exception the
-    temporary folder is deleted and ``path`` is left as it was.
+    temporary folder is deleted and ``path`` is left as it was; SIGTERM and SIGHUP during the
+    build raise :class:`BuildStopped` (a :class:`KeyboardInterrupt`) so they clean up as Ctrl-C
+    does (see :func:`_signals_stop_the_build`; the old handlers are restored on the way out).
 
     Raises
     ------
@@ -271,26 +338,44 @@ def atomic_directory(path, *, overwrite: bool = False):
     """
     target = Path(path)
     _check_replaceable(target, overwrite)
+    with _signals_stop_the_build():
+        with _atomic_directory(target, overwrite) as building:
+            yield building
+
+
+@contextlib.contextmanager
+def _atomic_directory(target: Path, overwrite: bool):
+    """:func:`atomic_directory` without the signal handlers.
+
+    The temporary folders are made, and the result moved into place, with SIGTERM and SIGHUP
+    held back (:func:`_signals_held`): such a signal then arrives when the step is done, never
+    between making a folder and knowing its name.
+    """
     parent = target.parent if str(target.parent) else Path(".")
-    building = _make_parent(target)
-    os.chmod(building, _default_mode(directory=True))
+    building = None
     try:
+        with _signals_held():
+            building = _make_parent(target)
+            os.chmod(building, _default_mode(directory=True))
         yield building
     except BaseException:
-        shutil.rmtree(building, ignore_errors=True)
+        if building is not None:
+            shutil.rmtree(building, ignore_errors=True)
         raise
     old = None
     try:
-        if os.path.lexists(target):
-            _check_replaceable(target, overwrite)       # may have appeared or changed while building
-            old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
-            os.replace(target, old / target.name)
-        os.replace(building, target)
-    except BaseException:
-        shutil.rmtree(building, ignore_errors=True)
-        if old is not None and not target.exists():
-            os.replace(old / target.name, target)
-        raise
+        with _signals_held():
+            try:
+                if os.path.lexists(target):
+                    _check_replaceable(target, overwrite)   # may have appeared or changed while building
+                    old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
+                    os.replace(target, old / target.name)
+                os.replace(building, target)
+            except BaseException:
+                shutil.rmtree(building, ignore_errors=True)
+                if old is not None and not target.exists():
+                    os.replace(old / target.name, target)
+                raise
     finally:
         if old is not None:
             shutil.rmtree(old, ignore_errors=True)

@@ -195,8 +195,9 @@ def test_parallel_sweep_equals_serial():
 
 def test_jobs_resolution_and_errors():
     assert resolve_jobs(None, 5) == 1 and resolve_jobs(1, 5) == 1
-    assert resolve_jobs(0, 100) == (os.cpu_count() or 1)
-    assert resolve_jobs(8, 3) == 3
+    cores = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else (os.cpu_count() or 1)
+    assert resolve_jobs(0, 100) == cores
+    assert resolve_jobs(8, 3) == min(3, cores)
     with pytest.raises(InputError):
         resolve_jobs(-1, 3)
 

@@ -34,15 +34,29 @@ def _callback(progress: Progress):
     return progress if callable(progress) else None
 
 
+def usable_cores() -> int:
+    """Cores this process may run on: :func:`os.sched_getaffinity` where it exists (it honours
+    CPU sets and ``taskset``), else :func:`os.cpu_count` (at least 1)."""
+    getaffinity = getattr(os, "sched_getaffinity", None)
+    if getaffinity is not None:
+        try:
+            return max(1, len(getaffinity(0)))
+        except OSError:
+            pass
+    return os.cpu_count() or 1
+
+
 def resolve_jobs(jobs: int | None, n_tasks: int) -> int:
-    """Number of worker processes: ``None``/1 -> serial, 0 -> ``os.cpu_count()``, capped by tasks."""
+    """Number of worker processes: ``None``/1 -> serial, 0 -> :func:`usable_cores`; any value is
+    capped at the usable cores and at the number of tasks (more workers only compete)."""
     if jobs is None:
         return 1
     if isinstance(jobs, bool) or not isinstance(jobs, int) or jobs < 0:
         raise InputError(f"'jobs' must be a non-negative integer (0 = all cores), got {jobs!r}")
+    cores = usable_cores()
     if jobs == 0:
-        jobs = os.cpu_count() or 1
-    return max(1, min(jobs, max(n_tasks, 1)))
+        jobs = cores
+    return max(1, min(jobs, cores, max(n_tasks, 1)))
 
 
 def _solve_task(task: dict):
@@ -64,7 +78,8 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: Progress =
     tasks : sequence of dict
         Keyword arguments of :func:`twoel.solve` (``Z`` included).
     jobs : int or None
-        Worker processes (1 or ``None``: serial in this process; 0: one per core).
+        Worker processes (1 or ``None``: serial in this process; 0: one per usable core; at most
+        the usable cores, :func:`resolve_jobs`).
     progress : callable, optional
         Called as ``progress(done, total)`` after each finished task (in task order).
     description : str

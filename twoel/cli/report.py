@@ -4,6 +4,8 @@ With ``--from-provenance FILE`` the recorded report is re-run and every block of
 checked (:mod:`twoel.report.reproduce`).  Exit status: 0 reproduced (within tolerance, or bit
 for bit with ``--strict``); 1 not reproduced (the verdict says what differs); 2 bad input
 (e.g. a provenance file of the wrong structure, one line on stderr), as for every command.
+SIGTERM or SIGHUP while the folder is written removes the unfinished folder (as Ctrl-C does)
+and exits with 128 + the signal number.
 """
 
 from __future__ import annotations
@@ -37,7 +39,8 @@ def add_parser(subparsers) -> None:
     add_output_arguments(p, what="the folder to write", group=where)
     p.add_argument("--html", action="store_true", help="also write index.html")
     p.add_argument("--jobs", type=positive_int, default=1,
-                   help="worker processes (default 1 = serial; 0 = one per core); same numbers")
+                   help="worker processes (default 1 = serial; 0 = one per usable core; capped at the "
+                        "usable cores); same numbers")
     p.add_argument("--strict", action="store_true",
                    help="with --from-provenance: compare every number bit for bit instead of "
                         "within its own tolerance")
@@ -54,11 +57,22 @@ def _target(args, name: str) -> Path:
 def run(args: argparse.Namespace) -> int:
     if args.name is not None and ("/" in args.name or args.name in ("", ".", "..")):
         raise InputError(f"--name must be a plain folder name, got {args.name!r} (use --out for a path)")
+    from twoel.analysis.sweep import usable_cores
     from twoel.cli.progress import counter
+    from twoel.io import BuildStopped
 
-    with counter("report", enabled=not args.quiet, unit="solve") as progress:
-        return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
-                           "progress": progress})
+    cores = usable_cores()
+    if args.jobs > cores:
+        sys.stderr.write(f"twoel: --jobs {args.jobs} capped at {cores}, the cores this process may use\n")
+        args.jobs = cores
+
+    try:
+        with counter("report", enabled=not args.quiet, unit="solve") as progress:
+            return _run(args, {"overwrite": args.overwrite, "html": args.html, "jobs": args.jobs,
+                               "progress": progress})
+    except BuildStopped as stop:        # SIGTERM/SIGHUP while the folder was being written
+        sys.stderr.write(f"twoel: {stop}; no unfinished folder is left behind\n")
+        return 128 + stop.signum
 
 
 def _run(args: argparse.Namespace, common: dict) -> int:

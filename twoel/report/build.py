@@ -105,6 +105,29 @@ def _charges(value, where: str) -> list[float]:
     raise InputError(f"{where}.Z must be a charge, a list of charges or a range text like '1:6'")
 
 
+def _check_optimize(where: str, mapping: dict) -> None:
+    """``optimize`` is a JSON boolean (or null: the family's choice); ``"no"`` is not false."""
+    value = mapping.get("optimize")
+    if value is not None and not isinstance(value, bool):
+        raise InputError(f"{where}.optimize must be true or false (a JSON/TOML boolean), "
+                         f"got {value!r}")
+
+
+def _check_parameters(where: str, mapping: dict) -> None:
+    """``parameters`` is a table of names and finite numbers (bohr⁻¹), not text."""
+    options = mapping.get("options")
+    if options is not None and not isinstance(options, dict):
+        raise InputError(f"{where}.options must be a table of settings, got {type(options).__name__}")
+    value = mapping.get("parameters")
+    if value is None:
+        return
+    if not isinstance(value, dict):
+        raise InputError(f"{where}.parameters must be a table of name = number, got {type(value).__name__}")
+    for name, number in value.items():
+        if isinstance(number, bool) or not isinstance(number, (int, float)) or not math.isfinite(number):
+            raise InputError(f"{where}.parameters.{name} must be a finite number (bohr⁻¹), got {number!r}")
+
+
 def _solve_keywords(section: dict, size=None) -> dict:
     keywords = {k: section[k] for k in ("state", "family", "parameters", "optimize", "options")
                 if section.get(k) is not None}
@@ -124,11 +147,15 @@ def _one_charge(section: str, mapping: dict) -> float:
 
 def _normalize_series(s: dict) -> dict:
     _check_keys("series", s, _SECTION_KEYS["series"])
+    _check_optimize("series", s)
+    _check_parameters("series", s)
     return {**{k: s[k] for k in _SOLVE_KEYS if k in s}, "Z": _charges(s.get("Z"), "series")}
 
 
 def _normalize_convergence(c: dict) -> dict:
     charge = _one_charge("convergence", c)
+    _check_optimize("convergence", c)
+    _check_parameters("convergence", c)
     sizes = c.get("sizes")
     if not isinstance(sizes, list) or not sizes or not all(isinstance(n, int) and not isinstance(n, bool) for n in sizes):
         raise InputError("convergence.sizes must be a non-empty list of integers")
@@ -139,6 +166,8 @@ def _normalize_convergence(c: dict) -> dict:
 
 def _normalize_levels(lv: dict) -> dict:
     charge = _one_charge("levels", lv)
+    _check_optimize("levels", lv)
+    _check_parameters("levels", lv)
     states = lv.get("states")
     if not isinstance(states, list) or not states:
         raise InputError("levels.states must be a non-empty list of {state, size} entries")
@@ -212,6 +241,40 @@ def report_tasks(config: dict) -> dict[str, list[dict]]:
         tasks["levels"] = [{"Z": lv["Z"], **_solve_keywords({**lv, "state": e["state"]}, e["size"])}
                            for e in lv["states"]]
     return tasks
+
+
+def _task_place(section: str, index: int, task: dict) -> str:
+    """Where task ``index`` of ``section`` comes from in the configuration."""
+    return {"series": f"series at Z = {task['Z']:g}", "convergence": f"convergence.sizes[{index}]",
+            "levels": f"levels.states[{index}]"}[section]
+
+
+def check_tasks(sections: dict[str, list[dict]]) -> None:
+    """Check every task of :func:`report_tasks` the way :func:`twoel.solve` does, before any solve.
+
+    Charge, state, family, size (every entry of ``convergence.sizes`` and of ``levels.states``),
+    options and parameters are checked at once, so a typo in the last size fails in a moment,
+    not after the solves before it.  The first problem is raised as a one-line
+    :class:`~twoel.errors.TwoelError` of the same type, naming its place in the configuration.
+    """
+    import warnings
+
+    from twoel.errors import TwoelError
+    from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD
+    from twoel.solver.pipeline import _validate      # the checks solve() runs first, no solving
+
+    for section, tasks in sections.items():
+        for index, task in enumerate(tasks):
+            try:
+                with warnings.catch_warnings():
+                    warnings.simplefilter("ignore")
+                    _validate(task["Z"], task.get("state", "1^1S"), task.get("family"),
+                              task.get("size"), task.get("parameters"), task.get("optimize"),
+                              task.get("options"), "float64", None, DEFAULT_DROP_THRESHOLD)
+            except TwoelError as exc:
+                raise type(exc)(f"{_task_place(section, index, task)}: {exc}") from None
+            except (TypeError, ValueError, AttributeError) as exc:
+                raise InputError(f"{_task_place(section, index, task)}: {exc}") from None
 
 
 def package_versions() -> dict[str, str | None]:
@@ -416,14 +479,32 @@ def _caveat() -> str:
                  "quickly with Z")
     return text + ". Do not compare them with spectroscopy beyond that level."
 
+#: the text of the ``bound`` column in the human tables when some row is not bound
+NOT_BOUND = "not bound"
+
+
+def _shown_frame(frame, columns: list[str]):
+    """The frame and columns of the human tables (Markdown, LaTeX, HTML).
+
+    When a row is not bound (its energy at or above the one-electron threshold -Z²/2) the
+    ``bound`` column is shown, as ``yes`` / ``not bound``; otherwise the frame is as it is.
+    """
+    if "bound" not in frame.columns or frame["bound"].astype(bool).all():
+        return frame, columns
+    shown = frame.copy()
+    shown["bound"] = _object_series("yes" if b else NOT_BOUND for b in frame["bound"].astype(bool))
+    return shown, [*columns, "bound"] if "bound" not in columns else columns
+
+
 def _write_table(folder: Path, stem: str, frame, columns, caption: str, page: _Page):
     from twoel.io import atomic_write_text
     from twoel.report.tables import render
 
     columns = [c for c in columns if c in frame.columns]
-    atomic_write_text(folder / "tables" / f"{stem}.md", render(frame, "markdown", columns=columns))
     atomic_write_text(folder / "tables" / f"{stem}.csv", render(frame, "csv"))
     atomic_write_text(folder / "tables" / f"{stem}.json", render(frame, "json"))
+    frame, columns = _shown_frame(frame, columns)
+    atomic_write_text(folder / "tables" / f"{stem}.md", render(frame, "markdown", columns=columns))
     atomic_write_text(folder / "tables" / f"{stem}.tex",
                       render(frame, "latex", caption=caption, columns=columns, label=f"tab:{stem}"))
     page.paragraph(f"Table: {caption}")
@@ -551,8 +632,14 @@ def _levels_section(folder: Path, results: list, page: _Page):
 
 
 def _result_notes(by_section: dict, results: list) -> list[str]:
-    """Notes on bases far from converged (> 1 mEh above the published value) and solver warnings."""
+    """Notes on levels not bound, bases far from converged (> 1 mEh above the published value) and
+    solver warnings."""
     notes = []
+    for result in {id(r): r for r in results}.values():
+        if not result.bound:
+            notes.append(f"{result.ion} {result.state} (size {result.size}) is not bound in this basis: "
+                         f"E = {result.energy_hartree:.6g} Eh is not below the one-electron threshold "
+                         f"-Z²/2 = {result.threshold_hartree:g} Eh, so it has no ionization energy.")
     checked = by_section.get("series", []) + by_section.get("levels", [])
     for result in {id(r): r for r in checked}.values():
         if result.difference_hartree is not None and abs(result.difference_hartree) > 1e-3:
@@ -670,6 +757,7 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     if out.exists() and not overwrite:
         raise InputError(f"{str(out)!r} exists; refusing to overwrite it (use --overwrite)")
     sections = report_tasks(config)
+    check_tasks(sections)
     results, by_section = _solve_sections(sections, jobs, progress)
 
     page = _Page()
