@@ -260,17 +260,16 @@ def check_tasks(sections: dict[str, list[dict]]) -> None:
     import warnings
 
     from twoel.errors import TwoelError
-    from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD
-    from twoel.solver.pipeline import _validate      # the checks solve() runs first, no solving
+    from twoel.solver.pipeline import check_inputs   # the checks solve() runs first, no solving
 
     for section, tasks in sections.items():
         for index, task in enumerate(tasks):
             try:
                 with warnings.catch_warnings():
                     warnings.simplefilter("ignore")
-                    _validate(task["Z"], task.get("state", "1^1S"), task.get("family"),
-                              task.get("size"), task.get("parameters"), task.get("optimize"),
-                              task.get("options"), "float64", None, DEFAULT_DROP_THRESHOLD)
+                    check_inputs(task["Z"], task.get("state", "1^1S"), task.get("family"),
+                                 task.get("size"), task.get("parameters"), task.get("optimize"),
+                                 task.get("options"))
             except TwoelError as exc:
                 raise type(exc)(f"{_task_place(section, index, task)}: {exc}") from None
             except (TypeError, ValueError, AttributeError) as exc:

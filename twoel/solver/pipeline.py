@@ -170,6 +170,12 @@ def _size_for_digits(fam, ion: Ion, state: State, digits: int, given_size, size)
     return size
 
 
+def check_inputs(Z, state, family=None, size=None, parameters=None, optimize=None, options=None,
+                 precision: str = "float64", digits=None, drop_threshold: float = DEFAULT_DROP_THRESHOLD) -> None:
+    """Run the input checks of :func:`solve` (nothing is solved); raises as :func:`solve` would."""
+    _validate(Z, state, family, size, parameters, optimize, options, precision, digits, drop_threshold)
+
+
 def _starting_parameters(fam, ion, state, size, options, given) -> list[Parameter]:
     params = fam.parameters(ion, state, size, options)
     names = [p.name for p in params]
