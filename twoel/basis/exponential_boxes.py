@@ -42,6 +42,11 @@ FILE_PREFIX = "exponential_boxes"
 EDGE_KEYS = ("alpha_min", "alpha_max", "beta_min", "beta_max", "gamma_min", "gamma_max")
 #: floor of every box edge (bohr⁻¹): edges are optimized on a log scale and must stay > 0
 EDGE_FLOOR = 1e-4
+#: smallest nuclear charge the boxes serve: every edge scales with Z (fallback rule), and below
+#: ``10 * EDGE_FLOOR`` the scaled edges run into the floor, the quasi-random exponents pile up
+#: and the overlap matrix turns singular (measured: N = 40, 1^1S, singular at Z = 3e-5).
+#: :func:`box_set_for` refuses smaller Z before any work.
+MIN_CHARGE = 10 * EDGE_FLOOR
 
 
 @dataclass(frozen=True)
@@ -226,7 +231,16 @@ def generic_boxes(ion: Ion, state: State) -> BoxSet:
 
 
 def box_set_for(ion: Ion, state: State) -> BoxSet:
-    """The stored set for ``(Z, state)``, else the fallback rule of the module text."""
+    """The stored set for ``(Z, state)``, else the fallback rule of the module text.
+
+    Raises
+    ------
+    InputError
+        If ``Z < MIN_CHARGE`` (the box edges, in bohr⁻¹, would fall to :data:`EDGE_FLOOR`).
+    """
+    if not ion.Z >= MIN_CHARGE:
+        raise InputError(f"the exponential family needs Z >= {MIN_CHARGE:g} (its box edges scale "
+                         f"with Z and stop at {EDGE_FLOOR:g} bohr^-1), got Z = {ion.Z:g}")
     table = stored_sets()
     key = (ion.Z, state.label)
     if key in table:

@@ -105,6 +105,12 @@ def run(args: argparse.Namespace) -> int:
 
     bars, sizes = None, None
     if args.hylleraas_preset:
+        from twoel.errors import InputError
+
+        for option, value in (("--family", args.family), ("--size", args.size)):
+            if value is not None:
+                raise InputError(f"--hylleraas-preset and {option} conflict: the preset is its own "
+                                 f"fixed basis; give one of them")
         result, values = _preset_state(args.Z, args.state, args.hylleraas_preset)
     elif args.no_uncertainties:
         result = solve_state(args.Z, args.state, size=args.size, family=args.family)

@@ -21,7 +21,7 @@ def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
     p.add_argument("--Z", required=True, help="charges: '1:10', '1:3:0.5', '1,2,5' or 'He,Li'")
     add_basis_arguments(p)
-    p.add_argument("--format", choices=("markdown", "csv", "latex", "json"), default="markdown",
+    p.add_argument("--format", choices=("markdown", "csv", "latex", "json"), default=None,
                    help="table format (default markdown)")
     p.add_argument("--json", action="store_true", help="same as --format json (no progress lines)")
     p.add_argument("--columns", default=None,
@@ -75,8 +75,13 @@ def run(args: argparse.Namespace) -> int:
     from twoel.report.tables import render, select_columns
     from twoel.system import parse_charge_range
 
-    if args.json:
-        args.format = "json"
+    if args.json and args.format not in (None, "json"):
+        from twoel.errors import InputError
+
+        raise InputError(f"--json and --format {args.format} conflict: --json means --format json; "
+                         f"give one of them")
+    if args.json or args.format is None:
+        args.format = "json" if args.json else "markdown"
     charges = parse_charge_range(args.Z)
     keywords = basis_keywords(args)
     frame = series_frame(charges, keywords, progress=not (args.quiet or args.format == "json"),

@@ -29,8 +29,8 @@ def add_parser(subparsers) -> None:
                       help="mass number of the nucleus (default: most abundant isotope)")
     mass.add_argument("--nuclear-mass", type=float, default=None,
                       help="explicit nuclear mass (unit from --mass-unit)")
-    p.add_argument("--mass-unit", choices=("u", "me"), default="u",
-                   help="unit of --nuclear-mass: u (default) or electron masses")
+    p.add_argument("--mass-unit", choices=("u", "me"), default=None,
+                   help="unit of --nuclear-mass: u (default) or electron masses; only with --nuclear-mass")
     p.add_argument("--quality", choices=("fast", "default"), default="default",
                    help="size of the preset correlated basis")
     p.add_argument("--family", default=None,
@@ -134,12 +134,38 @@ def fine_structure_text(d: dict) -> str:
     return "\n".join(lines) + "\n"
 
 
+def _check_family(name: str, state) -> None:
+    """Refuse, before any work, a ``--family`` that cannot give the corrections of ``state``.
+
+    The corrections need a correlated wavefunction whose basis converges with its size (the
+    family declares a basis-truncation error bar for ``state``); one-function products such as
+    ``screened`` give delta functions and mass polarization far off.
+    """
+    from twoel.basis import family_names, get_family
+    from twoel.errors import UnsupportedError
+
+    family = get_family(name)
+    if family.size_meaning is None or not family.gives_error_bar(state):
+        able = [f for f in family_names() if get_family(f).size_meaning is not None
+                and get_family(f).gives_error_bar(state)]
+        raise UnsupportedError(f"spectrum --family {family.name}: the corrections need a correlated "
+                               f"basis that converges with its size (use {', '.join(able)}, or no "
+                               f"--family for the preset basis)")
+
+
 def run(args: argparse.Namespace) -> int:
     from twoel.corrections.spectrum import compute_spectrum
 
+    from twoel.errors import InputError
     from twoel.system import State
 
+    if args.mass_unit is not None and args.nuclear_mass is None:
+        raise InputError(f"--mass-unit {args.mass_unit} needs --nuclear-mass: it is the unit of that "
+                         f"mass only (the isotope mass is always in u)")
+    mass_unit = args.mass_unit or "u"
     st = State.parse(args.state)
+    if args.family is not None:
+        _check_family(args.family, st)
     if st.L == 1:
         from twoel.corrections.spectrum import compute_fine_structure
 
@@ -160,7 +186,7 @@ def run(args: argparse.Namespace) -> int:
             raise NotBoundError(solved.message)
         wavefunction = solved.wavefunction
     result = compute_spectrum(args.Z, args.state, isotope=args.isotope,
-                              nuclear_mass_value=args.nuclear_mass, mass_unit=args.mass_unit,
+                              nuclear_mass_value=args.nuclear_mass, mass_unit=mass_unit,
                               quality=args.quality, wavefunction=wavefunction)
     d = result.to_dict()
     if args.json:
