@@ -52,3 +52,18 @@ def test_exponential_small_charges_are_not_bound(Z):
     assert not result.bound
     # the variational energy cannot lie below the exact one, itself >= -Z² (two bare 1s electrons)
     assert result.energy_hartree >= -Z ** 2
+
+
+def test_an_unbound_hylleraas_search_stops_early():
+    """Below the critical charge (~0.911, Estienne et al., Phys. Rev. Lett. 112, 173001 (2014),
+    from memory) the energy only creeps towards -Z²/2: the search stops and says so."""
+    import warnings
+
+    import twoel
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        r = twoel.solve(0.3, family="hylleraas", size=8)
+    assert not r.bound and r.energy_hartree > -0.3**2 / 2
+    assert r.optimizer["method"] == "stopped early" and r.optimizer["n_evaluations"] < 400
+    assert "not bound" in r.optimizer["message"]

@@ -197,14 +197,55 @@ def _optimize(plan: _Plan, progress) -> tuple[dict, dict | None]:
     if not plan.do_optimize:
         return values, None
     tune_size = plan.fam.tuning_size(plan.ion, plan.state, plan.size)
+    watch = _BindingWatch(plan.ion.threshold_hartree)
 
     def energy(v):
-        return plan.evaluate(v, tune_size)[2].values[plan.state.root]
+        value = plan.evaluate(v, tune_size)[2].values[plan.state.root]
+        watch.see(v, float(value))
+        return value
 
-    values, _best, opt = minimize_energy(energy, plan.params, progress=progress)
+    try:
+        values, _best, opt = minimize_energy(energy, plan.params, progress=progress)
+    except _StaysUnbound:
+        return dict(watch.best_values), {
+            "method": "stopped early", "n_evaluations": watch.count, "success": False,
+            "message": (f"stopped after {watch.count} evaluations: the energy stayed above the "
+                        f"one-electron threshold {plan.ion.threshold_hartree:g} Eh without approaching it "
+                        "(the state is not bound in this basis)"),
+            "initial": {p.name: p.initial for p in plan.params}, "size": tune_size}
     record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
               "message": opt.message, "initial": opt.initial, "size": tune_size}
     return values, record
+
+
+class _StaysUnbound(Exception):
+    """Raised inside the optimizer's objective to end a search that cannot bind the state."""
+
+
+class _BindingWatch:
+    """Stops an optimization whose energy stays above the threshold ``-Z²/2``: after
+    :data:`UNBOUND_PATIENCE` evaluations, if the best energy is still above it and the last
+    :data:`UNBOUND_PATIENCE` evaluations did not close half of its distance to it (a flat
+    surface: below the critical charge the energy only creeps towards the threshold)."""
+
+    def __init__(self, threshold: float):
+        self.threshold, self.count = threshold, 0
+        self.best, self.best_values, self.history = float("inf"), {}, []
+
+    def see(self, values: dict, energy: float) -> None:
+        self.count += 1
+        if energy < self.best:
+            self.best, self.best_values = energy, dict(values)
+        self.history.append(self.best)
+        if self.count < 2 * UNBOUND_PATIENCE or self.best < self.threshold:
+            return
+        earlier = self.history[-UNBOUND_PATIENCE - 1]
+        if earlier - self.best < 0.5 * (earlier - self.threshold):
+            raise _StaysUnbound
+
+
+#: evaluations between the checks of :class:`_BindingWatch`
+UNBOUND_PATIENCE = 60
 
 
 def _solve_at(plan: _Plan, values: dict) -> _Solved:
