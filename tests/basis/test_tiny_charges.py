@@ -66,4 +66,4 @@ def test_an_unbound_hylleraas_search_stops_early():
         r = twoel.solve(0.3, family="hylleraas", size=8)
     assert not r.bound and r.energy_hartree > -0.3**2 / 2
     assert r.optimizer["method"] == "stopped early" and r.optimizer["n_evaluations"] < 400
-    assert "not bound" in r.optimizer["message"]
+    assert "does not bind" in r.optimizer["message"]

@@ -211,7 +211,7 @@ def _optimize(plan: _Plan, progress) -> tuple[dict, dict | None]:
             "method": "stopped early", "n_evaluations": watch.count, "success": False,
             "message": (f"stopped after {watch.count} evaluations: the energy stayed above the "
                         f"one-electron threshold {plan.ion.threshold_hartree:g} Eh without approaching it "
-                        "(the state is not bound in this basis)"),
+                        "(this basis does not bind the state)"),
             "initial": {p.name: p.initial for p in plan.params}, "size": tune_size}
     record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
               "message": opt.message, "initial": opt.initial, "size": tune_size}
