@@ -12,24 +12,16 @@ import time
 import pytest
 
 from twoel.basis.exponential_boxes import MIN_CHARGE
-from twoel.cli import main
 from twoel.errors import InputError
 
 
-def run(capsys, *argv):
-    try:
-        code = main(list(argv))
-    except SystemExit as exc:
-        code = exc.code
-    out, err = capsys.readouterr()
-    return code, out, err
 
 
 @pytest.mark.parametrize("Z, state", [("1e-6", "1^1S"), ("1e-6", "2^3S"), ("1e-6", "2^1P"),
                                       ("0.0009", "1^1S")])
-def test_exponential_refuses_charges_below_the_bound(capsys, Z, state):
+def test_exponential_refuses_charges_below_the_bound(run_cli, Z, state):
     start = time.perf_counter()
-    code, out, err = run(capsys, "energy", "--Z", Z, "--family", "exponential", "--size", "40",
+    code, out, err = run_cli("energy", "--Z", Z, "--family", "exponential", "--size", "40",
                          "--state", state)
     assert code == 2, err
     assert out == "" and err.startswith("twoel: error: ") and err.count("\n") == 1

@@ -13,17 +13,9 @@ import stat
 import pytest
 
 from twoel import io as tio
-from twoel.cli import main
 from twoel.errors import InputError
 
 
-def run(capsys, *argv):
-    try:
-        code = main(list(argv))
-    except SystemExit as exc:
-        code = exc.code
-    out, err = capsys.readouterr()
-    return code, out, err
 
 
 def one_line_refusal(code, err):
@@ -82,10 +74,10 @@ def test_missing_folder_file_parent_and_unwritable_folder(tmp_path, monkeypatch)
     assert plain.read_text() == "a file"
 
 
-def test_cli_output_under_a_file_is_one_line(tmp_path, capsys):
+def test_cli_output_under_a_file_is_one_line(tmp_path, run_cli):
     plain = tmp_path / "plain.txt"
     plain.write_text("a file")
-    code, _, err = run(capsys, "check", "--Z", "2", "--energy", "-2.9", "--json",
+    code, _, err = run_cli("check", "--Z", "2", "--energy", "-2.9", "--json",
                        "--out", str(plain / "x.json"))
     one_line_refusal(code, err)
 
@@ -154,8 +146,8 @@ def test_root_home_and_current_folder_are_refused_before_anything(tmp_path, monk
      ("--terms", "at most 60", "99999999999999999999")),
     (("energy", "--Z", "2", "--size", "9" * 5000), ("--size", "at most", "5000 digits")),
 ])
-def test_huge_sizes_and_powers_are_refused_on_the_text(capsys, argv, words):
-    code, _, err = run(capsys, *argv)
+def test_huge_sizes_and_powers_are_refused_on_the_text(run_cli, argv, words):
+    code, _, err = run_cli(*argv)
     assert code == 2 and err.count("\n") == 1 and "Traceback" not in err, err
     for word in words:
         assert word in err
@@ -179,7 +171,7 @@ def test_size_list_counts_a_range_before_expanding_it(monkeypatch):
 
 # --- 3. the energy checker on the command line ----------------------------------------------
 
-def test_check_csv_escapes_formula_labels(tmp_path, capsys):
+def test_check_csv_escapes_formula_labels(tmp_path, run_cli):
     import csv
     import io
 
@@ -187,17 +179,17 @@ def test_check_csv_escapes_formula_labels(tmp_path, capsys):
     rows.write_text("Z,energy,unit,label\n" + "".join(
         f"2,-2.9033,hartree,{start}cmd|x\n" for start in ("=", "+", "-", "@")) + "2,-2.9033,hartree,CISD\n")
     out = tmp_path / "out.csv"
-    code, _, err = run(capsys, "check", "--file", str(rows), "--format", "csv", "--out", str(out))
+    code, _, err = run_cli("check", "--file", str(rows), "--format", "csv", "--out", str(out))
     assert code == 0, err
     labels = [r["label"] for r in csv.DictReader(io.StringIO(out.read_text()))]
     assert labels == ["'=cmd|x", "'+cmd|x", "'-cmd|x", "'@cmd|x", "CISD"]
 
 
-def test_check_cli_units_and_hostile_files(tmp_path, capsys):
-    code, out, err = run(capsys, "check", "--Z", "2", "--energy", "-2903.3", "--unit", "MEh")
+def test_check_cli_units_and_hostile_files(tmp_path, run_cli):
+    code, out, err = run_cli("check", "--Z", "2", "--energy", "-2903.3", "--unit", "MEh")
     one_line_refusal(code, err)
     assert "ambiguous" in err
-    code, out, err = run(capsys, "check", "--Z", "2", "--energy", str(-2.9033 * 219474.6313632),
+    code, out, err = run_cli("check", "--Z", "2", "--energy", str(-2.9033 * 219474.6313632),
                          "--unit", "cm⁻¹", "--json")
     assert code == 0 and json.loads(out)["flags"] == [], err
     deep = tmp_path / "deep.json"
@@ -205,18 +197,18 @@ def test_check_cli_units_and_hostile_files(tmp_path, capsys):
     latin = tmp_path / "latin.csv"
     latin.write_bytes(b"Z,energy,unit,label\n2,-2.9,hartree,M\xf8ller\n")
     for path in (deep, latin, tmp_path / "no-such-file.csv"):
-        code, _, err = run(capsys, "check", "--file", str(path))
+        code, _, err = run_cli("check", "--file", str(path))
         one_line_refusal(code, err)
-    code, out, err = run(capsys, "check", "--Z", "2", "--energy=-1e300", "--unit", "Eh", "--json")
+    code, out, err = run_cli("check", "--Z", "2", "--energy=-1e300", "--unit", "Eh", "--json")
     assert code == 0 and "below_exact" in json.loads(out)["flags"], err
 
 
 # --- 4. hf at large charges -------------------------------------------------------------------
 
 @pytest.mark.slow
-def test_hf_default_sizes_at_z_118(capsys):
+def test_hf_default_sizes_at_z_118(run_cli):
     """Was 'no converged SCF' after tens of seconds; E2(HF) = -0.111003 (from memory) to 5e-5."""
-    code, out, err = run(capsys, "hf", "--Z", "118", "--json", "--quiet")
+    code, out, err = run_cli("hf", "--Z", "118", "--json", "--quiet")
     assert code == 0, err
     energy = json.loads(out)["energy_hartree"]
     assert energy + 118**2 - 5 * 118 / 8 == pytest.approx(-0.111003, abs=5e-5)
