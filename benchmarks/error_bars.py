@@ -51,8 +51,7 @@ def row(Z, state, size, precision) -> dict:
             return {"skip": str(error).splitlines()[0]}
     seconds = time.perf_counter() - started
     mpmath.mp.dps = 50
-    full = result.provenance.get("energy_full_text") if isinstance(result.provenance, dict) else None
-    value = mpmath.mpf(full or repr(result.energy_hartree))  # the full value, not the printed digits
+    value = mpmath.mpf(result.energy_full_text)  # the full value, not the printed digits
     true = float(value - mpmath.mpf(reference.value_text))
     bar = result.error_bar_hartree
     reliable = result.reliable is not False

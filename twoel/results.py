@@ -198,10 +198,16 @@ class EnergyResult(Result):
             return None
         from decimal import Decimal, localcontext
 
-        full = self.provenance.get("energy_full_text") if isinstance(self.provenance, dict) else None
         with localcontext() as context:
             context.prec = 60
-            return float(Decimal(full or repr(self.energy_hartree)) - Decimal(self.reference.value_text))
+            return float(Decimal(self.energy_full_text) - Decimal(self.reference.value_text))
+
+    @property
+    def energy_full_text(self) -> str:
+        """Every computed digit of the energy (Eh): the refined value's text where there is one,
+        else the float64 value; :attr:`energy_hartree_text` is cut to the error bar."""
+        full = self.provenance.get("energy_full_text") if isinstance(self.provenance, dict) else None
+        return full or repr(self.energy_hartree)
 
     @property
     def ionization_energy_error_bar_hartree(self) -> float | None:

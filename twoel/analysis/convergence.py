@@ -191,7 +191,7 @@ def run_study(Z, state="1^1S", sizes: Sequence[int] = (100, 141, 200, 283, 400),
         if progress is not None:
             progress(k + 1, len(sizes))
     energies = [r.energy_hartree for r, _t, _u in results]
-    texts = [r.provenance.get("energy_full_text") or repr(r.energy_hartree) for r, _t, _u in results]
+    texts = [r.energy_full_text for r, _t, _u in results]
     numerical = [u for _r, _t, u in results]
     last = results[-1][0]
     refined = last.provenance.get("refinement") is not None

@@ -69,7 +69,7 @@ def _ionization_line(result) -> str:
     from twoel.report.numbers import format_uncertain
     from twoel.units import UNIT_LABELS, hartree_to
 
-    full = result.provenance.get("energy_full_text") or repr(result.energy_hartree)
+    full = result.energy_full_text
     with localcontext() as context:
         context.prec = 40
         ie = Decimal(repr(result.threshold_hartree)) - Decimal(full)

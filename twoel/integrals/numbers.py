@@ -90,7 +90,7 @@ class DoubleDoubleType(NumberType):
         return DD(np.stack([a.hi for a in arrays], axis=axis), np.stack([a.lo for a in arrays], axis=axis))
 
     def einsum(self, spec: str, x: DD, y: DD) -> DD:
-        return row_einsum(spec, x, y, lambda d: (d.hi, d.lo), lambda parts: DD(*parts))
+        return _dd_einsum(spec, x, y)
 
     def sixteen_pi_squared(self) -> DD:
         hi, lo = _sixteen_pi_squared_parts()
@@ -100,17 +100,13 @@ class DoubleDoubleType(NumberType):
         return x.hi + x.lo
 
 
-def row_einsum(spec: str, x, y, parts, make):
-    """Two-operand ``einsum`` such as ``"eam,emn->ean"`` for any number type, one row at a time.
+def _dd_einsum(spec: str, x: DD, y: DD) -> DD:
+    """Two-operand ``einsum`` such as ``"eam,emn->ean"`` in double-double, one row at a time.
 
     The first output letter is the long axis (the entries of the integral engine); every other
-    index is looped over, so that each arithmetic operation runs on one contiguous row of
-    entries.  That keeps the temporaries in cache: for double-double about five times faster
-    than broadcasting whole blocks, and for float64 pair series faster than ``np.einsum``,
-    whose inner loop would be the short index (the table path of the engine uses NumPy's
-    ``einsum`` for float64, where there are few entries).  ``parts(x)`` gives the float64 arrays a number
-    is made of (``(hi, lo)`` for double-double) and ``make(parts)`` rebuilds it.  No repeated
-    letters within an operand.
+    index is looped over, so that each double-double operation runs on one contiguous row of
+    entries, which keeps its many temporaries in cache (about five times faster than
+    broadcasting whole blocks).  No repeated letters within an operand.
     """
     inputs, output = spec.replace(" ", "").split("->")
     first, second = inputs.split(",")
@@ -118,11 +114,11 @@ def row_einsum(spec: str, x, y, parts, make):
     extents = {}
     for letters, operand in ((first, x), (second, y)):
         for axis, c in enumerate(letters):
-            extents[c] = parts(operand)[0].shape[axis]
+            extents[c] = operand.hi.shape[axis]
     free = output[1:]
     contracted = "".join(dict.fromkeys(c for c in first + second if c not in output))
-    x_parts = [np.ascontiguousarray(np.moveaxis(a, first.index(entry), -1)) for a in parts(x)]
-    y_parts = [np.ascontiguousarray(np.moveaxis(a, second.index(entry), -1)) for a in parts(y)]
+    x_parts = [np.ascontiguousarray(np.moveaxis(a, first.index(entry), -1)) for a in (x.hi, x.lo)]
+    y_parts = [np.ascontiguousarray(np.moveaxis(a, second.index(entry), -1)) for a in (y.hi, y.lo)]
     x_rest = [c for c in first if c != entry]
     y_rest = [c for c in second if c != entry]
     rows = []
@@ -133,13 +129,13 @@ def row_einsum(spec: str, x, y, parts, make):
             fixed.update(zip(contracted, inner))
             xi = tuple(fixed[c] for c in x_rest)
             yi = tuple(fixed[c] for c in y_rest)
-            term = make([a[xi] for a in x_parts]) * make([a[yi] for a in y_parts])
+            term = DD(*(a[xi] for a in x_parts)) * DD(*(a[yi] for a in y_parts))
             total = term if total is None else total + term
-        rows.append(parts(total))
+        rows.append(total)
     shape = tuple(extents[c] for c in free) + (extents[entry],)
-    out = [np.ascontiguousarray(np.moveaxis(np.stack([r[k] for r in rows]).reshape(shape), -1, 0))
-           for k in range(len(rows[0]))]
-    return make(out)
+    hi, lo = (np.ascontiguousarray(np.moveaxis(np.stack([getattr(r, k) for r in rows]).reshape(shape), -1, 0))
+              for k in ("hi", "lo"))
+    return DD(hi, lo)
 
 
 @lru_cache(maxsize=1)

@@ -132,8 +132,8 @@ def _family_sequence(Z: float, state: State, size, family):
     size = size or recommended_size(Z, state, family or "exponential")
     out, main = [], None
     for n in error_bar_sizes(size) + [size]:
-        result = solve_state(Z, state.label, size=n, family=family,
-                             **({} if n == size else {"error_bar": False}))
+        # the sequence itself gives the uncertainties: no solve needs its own nested error bar
+        result = solve_state(Z, state.label, size=n, family=family, error_bar=False)
         basis = result.wavefunction.basis
         m = basis.matrices()
         values, floors = _values_and_floor(result.wavefunction, Z, m.hamiltonian(Z), m.overlap,
