@@ -68,3 +68,17 @@ def test_default_bars_cover_the_published_values(ground_default, name):
 def test_default_values_within_1e8_relative(ground_default):
     for name, ref in PUBLISHED.items():
         assert ground_default.bars[name].value == pytest.approx(ref, rel=1e-8), name
+
+
+def test_the_energy_of_a_properties_run_carries_a_bar_that_covers_it():
+    """He 1¹S against C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006): -2.903 724 377 034 119 598."""
+    import warnings
+
+    from twoel.properties.nested import properties_with_uncertainties
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        nested = properties_with_uncertainties(2, "1^1S", size=150, family="exponential")
+    bar = nested.bars["energy"]
+    error = abs(bar.value - (-2.903724377034119598))
+    assert error <= bar.uncertainty <= 30 * max(error, 1e-15)

@@ -61,7 +61,8 @@ def _value_text(key, value, bars) -> str:
 def summary_text(result, values, bars=None) -> str:
     lines = [f"{result.ion} {result.state}  (Z = {result.Z:g}, family {result.family}, "
              f"{result.n_terms} functions); per electron, atomic units",
-             f"energy: {result.energy_hartree!r} Eh"]
+             "energy: " + (_value_text("energy", result.energy_hartree, bars)
+                           if bars is not None and "energy" in bars else repr(result.energy_hartree)) + " Eh"]
     for key, label, unit in _ROWS:
         text = _value_text(key, getattr(values, key), bars)
         lines.append(f"  {label:36s} {text} {unit}".rstrip())

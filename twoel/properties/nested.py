@@ -104,6 +104,9 @@ def _values_and_floor(wavefunction, Z: float, hamiltonian, overlap, root: int, r
     pick = int(np.argmax(np.abs(coarse.vectors.T @ (overlap @ c))))
     other = expectation_values(Wavefunction(wavefunction.basis, coarse.vectors[:, pick]), Z, refine=False)
     floors = {}
+    energy = float(c @ hamiltonian @ c / (c @ overlap @ c))
+    # the energy of a refined (beyond float64) solve does not feel the dropped directions
+    floors["energy"] = (abs(float(coarse.values[pick]) - energy) if refine is False else 0.0) + 1e-15 * abs(energy)
     for name in UNCERTAIN:
         a, b = getattr(values, name), getattr(other, name)
         if a is None or b is None:
@@ -180,6 +183,8 @@ def properties_with_uncertainties(Z, state="1^1S", size: int | None = None,
         if name in DELTAS:
             bar = check_nonnegative(bar, name)
         bars[name] = bar
+    energies = [e for _n, e, _v, _f in seq]
+    bars["energy"] = sequence_bar(energies, seq[-1][3]["energy"])
     if st.exchange_sign < 0:
         bars["delta_r12"] = exact(0.0, TRIPLET_NOTE)
         bars["delta_r12_regularized"] = exact(0.0, TRIPLET_NOTE)
