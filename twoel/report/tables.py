@@ -50,6 +50,8 @@ TABLE_FORMATS = ("markdown", "csv", "latex", "json")
 UNCERTAINTY_COLUMNS = {
     "energy_hartree": "error_bar_hartree",
     "reference_hartree": "reference_uncertainty_hartree",
+    "quantum_defect": "quantum_defect_uncertainty",   # twoel levels (twoel.analysis.levels)
+    "effective_n": "quantum_defect_uncertainty",      # σ(n*) = σ(δ)
 }
 
 #: value column -> (column of the energy's error bar, unit it is converted to): an ionization
@@ -63,7 +65,8 @@ PROPAGATED_UNCERTAINTY = {
 
 #: value columns whose printed digits need an uncertainty (marked when they have none)
 UNCERTAIN_COLUMNS = frozenset({"energy_hartree", "reference_hartree", "extrapolated_hartree",
-                               "correlation_energy_hartree", *PROPAGATED_UNCERTAINTY})
+                               "correlation_energy_hartree", "quantum_defect", "effective_n",
+                               *PROPAGATED_UNCERTAINTY})
 
 #: mark -> (plain-text symbol, LaTeX math symbol)
 MARKS = {"nobar": ("\u2020", r"\dagger"), "rounded": ("\u2021", r"\ddagger"), "unreliable": ("\u00a7", r"\S")}
@@ -84,6 +87,7 @@ TEXT_COLUMNS = {"reference_hartree": "reference_hartree_text"}
 SCIENTIFIC_COLUMNS = frozenset({
     "difference_hartree", "increment_hartree", "error_bar_hartree", "extrapolation_error_hartree",
     "reference_uncertainty_hartree", "condition_number", "residual_hartree", "ratio_error_hartree",
+    "quantum_defect_uncertainty",
 })
 
 #: columns printed as term symbols / citation keys
@@ -125,6 +129,9 @@ COLUMN_LABELS = {
     "correlation_energy_hartree": _in_unit("E_corr", r"$E_\mathrm{corr}$"),
     "virial_ratio": ("−V/T", r"$-\langle V\rangle/\langle T\rangle$"),
     "bound": ("bound", "bound"),
+    "effective_n": ("n*", r"$n^*$"),
+    "quantum_defect": ("δ", r"$\delta$"),
+    "quantum_defect_uncertainty": ("σ_δ", r"$\sigma_\delta$"),
 }
 
 _LATEX_SPECIAL = {"&": r"\&", "%": r"\%", "$": r"\$", "#": r"\#", "_": r"\_", "{": r"\{", "}": r"\}",
