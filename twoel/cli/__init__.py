@@ -20,7 +20,7 @@ from twoel.cli.common import TwoelArgumentParser
 
 #: modules of twoel.cli that define a command, in help order
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
-                   "check", "report")
+                   "check", "report", "levels")
 
 
 def build_parser() -> TwoelArgumentParser:
