@@ -365,9 +365,15 @@ def series_fits(levels: Sequence[Level], lowest_n: int = DEFAULT_FIT_LOWEST_N) -
 
 
 def _solve_level(task: dict):
-    """Worker: ``solve(**task)``, or the refused/failed state as ``(status, message)``."""
+    """Worker: ``solve(**task)``, or the refused/failed state as ``(status, message)``.
+
+    A state whose inputs :func:`twoel.solver.pipeline.check_inputs` refuses as unsupported (no
+    family represents it, or not at this precision) is *not available*; a solve that stops with
+    an error later (too few functions for the root, no convergence...) has *failed*.  Bad input
+    (:class:`~twoel.errors.InputError`) is raised: it is the same for every state.
+    """
     from twoel.basis import family_for
-    from twoel.solver.pipeline import solve
+    from twoel.solver.pipeline import check_inputs, solve
 
     task = dict(task)
     state = State.parse(task["state"])
@@ -382,9 +388,11 @@ def _solve_level(task: dict):
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")  # warnings travel inside the result
         try:
-            return solve(**task)
+            check_inputs(**task)
         except UnsupportedError as exc:
             return (NOT_AVAILABLE, f"{NOT_AVAILABLE_TEXT} ({exc})")
+        try:
+            return solve(**task)
         except InputError:
             raise
         except TwoelError as exc:
