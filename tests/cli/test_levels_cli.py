@@ -110,3 +110,20 @@ def test_bad_input_is_one_line_with_exit_code_2(run_cli, argv):
     code, out, err = run_cli("levels", *words, "--quiet")
     assert code == 2, (argv, err)
     assert len(err.strip().splitlines()) == 1 and "Traceback" not in err
+
+
+def test_term_diagram_has_one_labelled_column_per_series():
+    from twoel.errors import InputError
+    from twoel.report.level_diagram import term_diagram_figure
+    from twoel.report.plots import axis_labels
+
+    fig = term_diagram_figure([0, 0, 1], [1, 3, 1], [2, 2, 2], [-2.146, -2.175, -2.124], -2.0,
+                              empty_series=[(2, 1)])
+    ax = fig.axes[0]
+    assert [t.get_text() for t in ax.get_xticklabels()] == [r"${}^{1}\mathrm{S}$", r"${}^{3}\mathrm{S}$",
+                                                            r"${}^{1}\mathrm{P}$", r"${}^{1}\mathrm{D}$"]
+    assert axis_labels(fig)[0][1] == r"energy / $E_\mathrm{h}$"
+    with pytest.raises(InputError):
+        term_diagram_figure([0], [1], [2], [float("nan")])
+    with pytest.raises(InputError):
+        term_diagram_figure([0, 1], [1], [2], [-2.1])
