@@ -127,3 +127,12 @@ def test_term_diagram_has_one_labelled_column_per_series():
         term_diagram_figure([0], [1], [2], [float("nan")])
     with pytest.raises(InputError):
         term_diagram_figure([0, 1], [1], [2], [-2.1])
+
+
+def test_a_folder_is_never_written_over(run_cli, tmp_path):
+    for option in ("--out", "--figure"):
+        target = tmp_path / ("folder.png" if option == "--figure" else "folder")
+        target.mkdir()
+        code, _, err = run_cli(*SMALL, option, str(target), "--overwrite", "--quiet")
+        assert code == 2 and "not a regular file" in err and len(err.strip().splitlines()) == 1
+        assert target.is_dir() and not any(target.iterdir())

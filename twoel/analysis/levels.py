@@ -42,7 +42,7 @@ from typing import Callable, Sequence
 
 import numpy as np
 
-from twoel.errors import InputError, TwoelError, UnsupportedError
+from twoel.errors import ConvergenceError, InputError, TwoelError, UnsupportedError
 from twoel.results import Result
 from twoel.system import Ion, State
 
@@ -211,8 +211,12 @@ def fit_ritz(n, delta, sigma=None, *, L: int = 0, multiplicity: int = 1, terms: 
     weighted = s is not None and s.size == nn.size and bool(np.all(np.isfinite(s) & (s > 0)))
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
-        values, cov = curve_fit(ritz_defect, nn, d, p0=_ritz_start(nn, d, count),
-                                sigma=s if weighted else None, absolute_sigma=weighted)
+        try:
+            values, cov = curve_fit(ritz_defect, nn, d, p0=_ritz_start(nn, d, count),
+                                    sigma=s if weighted else None, absolute_sigma=weighted)
+        except RuntimeError as exc:  # scipy: the least-squares iteration did not converge
+            raise ConvergenceError(f"the Ritz fit of the ^{multiplicity}{'SPDFGHIK'[L]} series did not "
+                                   f"converge ({exc})") from None
     residuals = d - ritz_defect(nn, *values)
     dof = nn.size - count
     note = ""
@@ -347,10 +351,11 @@ class LevelTable(Result):
         return pd.DataFrame(rows)
 
 
-def series_fits(levels: Sequence[Level], lowest_n: int = DEFAULT_FIT_LOWEST_N) -> list[RitzFit]:
+def series_fits(levels: Sequence[Level], lowest_n: int = DEFAULT_FIT_LOWEST_N) -> tuple[list[RitzFit], list[str]]:
     """One :func:`fit_ritz` per series (``L``, multiplicity) with at least :data:`MIN_FIT_POINTS`
-    computed levels of ``n >= lowest_n`` that have a quantum defect."""
-    fits = []
+    computed levels of ``n >= lowest_n`` that have a quantum defect; and a note for each series
+    whose fit did not converge."""
+    fits, notes = [], []
     keys = sorted({(lv.L, lv.multiplicity) for lv in levels})
     for L, mult in keys:
         chosen = [lv for lv in levels if (lv.L, lv.multiplicity) == (L, mult) and lv.status == COMPUTED
@@ -359,9 +364,12 @@ def series_fits(levels: Sequence[Level], lowest_n: int = DEFAULT_FIT_LOWEST_N) -
             continue
         sigma = [np.nan if lv.quantum_defect_uncertainty is None else lv.quantum_defect_uncertainty
                  for lv in chosen]
-        fits.append(fit_ritz([lv.n for lv in chosen], [lv.quantum_defect for lv in chosen], sigma,
-                             L=L, multiplicity=mult))
-    return fits
+        try:
+            fits.append(fit_ritz([lv.n for lv in chosen], [lv.quantum_defect for lv in chosen], sigma,
+                                 L=L, multiplicity=mult))
+        except ConvergenceError as exc:
+            notes.append(str(exc))
+    return fits, notes
 
 
 def _solve_level(task: dict):
@@ -471,8 +479,7 @@ def compute_levels(Z, n_max: int = 5, L_max: int = 3, *, family: str | None = No
             levels.append(Level(state.label, state.n, state.L, state.multiplicity, outcome[0], outcome[1]))
         else:
             levels.append(level_from_result(state, outcome, zeta))
-    notes = [] if zeta > 0 else [NO_DEFECT_NOTE]
-    fits = series_fits(levels, fit_lowest_n) if zeta > 0 else []
+    fits, notes = series_fits(levels, fit_lowest_n) if zeta > 0 else ([], [NO_DEFECT_NOTE])
     provenance = {"package": "twoel", "version": __version__, "method": "Rayleigh-Ritz variational, "
                   "one solve per level; quantum defects from E_th = -Z²/2 and ζ = Z - 1; Ritz fits by "
                   "weighted nonlinear least squares (scipy.optimize.curve_fit)",

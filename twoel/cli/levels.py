@@ -264,6 +264,8 @@ def _check_paths(args) -> None:
     from twoel.errors import InputError
 
     for path in (args.out, args.figure):
+        if path is not None and os.path.exists(path) and not os.path.isfile(path):
+            raise InputError(f"{path!r} is not a regular file; refusing to write there")
         if path is not None and os.path.lexists(path) and not args.overwrite:
             raise InputError(f"output file {path!r} exists; pass --overwrite (or --force) to replace it")
         if path is not None and not os.path.isdir(os.path.dirname(os.path.abspath(path))):
