@@ -107,7 +107,7 @@ def test_every_help_page_renders(capsys):
     commands = parser._subparsers._group_actions[0].choices
     # every landed command is still there
     assert set(commands) == {"energy", "series", "converge", "transition", "properties", "spectrum",
-                             "hf", "check", "report"}
+                             "hf", "check", "report", "levels"}
     for name in commands:
         with pytest.raises(SystemExit) as exc:
             parser.parse_args([name, "--help"])
