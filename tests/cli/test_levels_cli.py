@@ -136,3 +136,32 @@ def test_a_folder_is_never_written_over(run_cli, tmp_path):
         code, _, err = run_cli(*SMALL, option, str(target), "--overwrite", "--quiet")
         assert code == 2 and "not a regular file" in err and len(err.strip().splitlines()) == 1
         assert target.is_dir() and not any(target.iterdir())
+
+
+def test_parallel_levels_are_the_serial_ones(run_cli):
+    code, serial, _ = run_cli("levels", "--Z", "2", "--n-max", "2", "--L-max", "0", "--size", "40", "--json")
+    assert code == 0
+    code, parallel, err = run_cli("levels", "--Z", "2", "--n-max", "2", "--L-max", "0", "--size", "40",
+                                  "--json", "--jobs", "2")
+    assert code == 0, err
+    energies = [[r["energy_hartree"] for r in json.loads(text)["levels"]] for text in (serial, parallel)]
+    assert energies[0] == energies[1] and len(energies[0]) == 3
+
+
+@pytest.mark.slow
+def test_default_bases_reach_the_reference_energies_and_defects(run_cli):
+    """He n <= 4, S and P, at the sizes twoel chooses (about 40 s): every level within its bar of
+    the published energy (G. W. F. Drake, Springer Handbook of Atomic, Molecular and Optical
+    Physics (2006), ch. 11; C. Schwartz, Int. J. Mod. Phys. E 15, 877 (2006)), and the Ritz limits
+    δ₀ near the known ones (same handbook, from memory)."""
+    code, out, err = run_cli("levels", "--Z", "2", "--n-max", "4", "--L-max", "1", "--json")
+    assert code == 0, err
+    record = json.loads(out)
+    for level in record["levels"]:
+        assert level["status"] == "computed"
+        assert abs(level["difference_hartree"]) <= level["error_bar_hartree"], level["state"]
+    limits = {(0, 1): 0.140, (0, 3): 0.297, (1, 1): -0.012, (1, 3): 0.068}
+    fits = {(f["L"], f["multiplicity"]): f for f in record["fits"]}
+    assert set(fits) == set(limits)
+    for key, value in limits.items():
+        assert abs(fits[key]["coefficients"]["delta_0"] - value) < 2e-3, key
