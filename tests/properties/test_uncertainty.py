@@ -28,6 +28,17 @@ def test_growing_steps_are_flagged():
     assert not bar.reliable and bar.uncertainty >= 5e-8
 
 
+def test_a_value_that_moved_more_in_the_last_step_is_flagged_even_within_the_floor():
+    """Steps within the arithmetic error keep a reliable bar, but a last step larger than the
+    one before (the value did not improve with the largest basis) is flagged; a shrinking
+    sequence is not."""
+    bar = sequence_bar([1.0, 1.0 + 1e-10, 1.0 - 2e-10], floor=1e-9)
+    assert bar.reliable and bar.worsened and "larger" in bar.note
+    assert bar.to_dict()["worsened"] is True
+    assert bar.uncertainty >= 2e-9 + 3e-10
+    assert not sequence_bar([1.0, 1.0 + 1e-8, 1.0 + 1.2e-8], floor=1e-12).worsened
+
+
 def test_negative_delta_beyond_its_bar_is_flagged():
     """A δ expectation is an integral of |Ψ|² (>= 0, exact): negative beyond the bar is flagged."""
     bar = check_nonnegative(sequence_bar([-3.0e-9, -2.6e-9, -2.5e-9]), "delta_r12")
