@@ -13,13 +13,14 @@ Default basis
     ``2³S`` and H⁻ the two-scale basis of the corrections
     (:func:`twoel.corrections.spectrum.preset_basis`, quality ``"default"``).  The nested
     predecessors lower every shell's ``ω`` by 1 and by 2.  For He 1¹S (704 functions) the
-    default run gives ``⟨1/r1²⟩`` and the regularized δ(r1) to ~2e-9 relative and δ(r12) to
-    ~1.6e-8 (measured against Drake 2006), where the default exponential basis (N = 600) is
+    default run gives ``⟨1/r1²⟩`` and the regularized δ(r1) to ~3e-9 relative and δ(r12) to a few
+    1e-8 (measured against Drake 2006), where the default exponential basis (N = 600) is
     ~1e-6 off: the float64 eigenvector of a large exponential basis is limited by the
     conditioning of its overlap (it reaches the energy only through the refined vector, which
     the δ operators cannot use: they need ``I(-2, b, c)`` integrals that exist in float64 only).
     The float64 Hylleraas eigenvector itself is the limit of these three values: they move by
-    ~1e-9 to 1e-8 relative when the drop threshold changes tenfold (the floor of the bars).
+    ~1e-9 (δ(r12): ~5e-8) relative when the drop threshold changes tenfold (the floor of the
+    bars).
     With ``size`` or ``family`` given (and for every other state): that family via
     :func:`twoel.analysis.transitions.solve_state`, sizes ``N/2, N/√2, N``.
 
@@ -79,29 +80,34 @@ class NestedProperties:
     notes: tuple = field(default=())
 
 
-#: the three-shell two-scale Hylleraas basis of the default 1¹S run (Z >= 1.5):
-#: ``(ω, α/Z, β/Z)`` per shell.  Chosen for the expectation values rather than for the energy:
-#: the inner shell (α, β ~ 6Z) carries the region of both electrons near the nucleus, which
-#: ``⟨1/r1²⟩`` and ``⟨δ³(r1)⟩`` weight; measured for He at its drop threshold (704 functions):
-#: ``⟨1/r1²⟩`` and the regularized ``⟨δ³(r1)⟩`` ~2e-9 relative, energy 4e-12 Eh above the
-#: exact value, against 1.3e-8, 1.4e-8 and 3e-11 Eh for the two-shell preset of the corrections
-GROUND_SHELLS = ((12, 0.9, 1.1), (8, 2.25, 3.0), (6, 6.0, 7.0))
+#: the three-shell two-scale Hylleraas basis of the default 1¹S run (Z >= 1.5): per shell
+#: ``(ω, α/Z, β/Z, γ/Z)`` of ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}``, i + j + k <= ω.
+#: Chosen for the expectation values rather than for the energy: the inner shell (α, β ~ 6Z)
+#: carries both electrons near the nucleus, which ``⟨1/r1²⟩`` and ``⟨δ³(r1)⟩`` weight.
+#: Measured for He (704 functions, against Drake 2006): ``⟨1/r1²⟩`` and the regularized
+#: ``⟨δ³(r1)⟩`` +1.8e-9 and +2.1e-9 relative (-0.3e-9 to +2.5e-9 at drop thresholds 1e-13 to
+#: 1e-16), the regularized ``⟨δ³(r12)⟩`` -1.6e-8 (-1.6e-8 to -2.8e-8: float64 scatter), energy
+#: 4e-12 Eh above the exact value; the two-shell preset of the corrections gives 1.3e-8,
+#: 1.4e-8, -7e-9 and 3e-11 Eh.  (An r12 exponent e^{+0.15 Z r12} on the middle shell moved
+#: δ(r12) to -2e-9 at 1e-14 but -3e-8 to -7e-8 at the other thresholds: no gain.)
+GROUND_SHELLS = ((12, 0.9, 1.1, 0.0), (8, 2.25, 3.0, 0.0), (6, 6.0, 7.0, 0.0))
 #: relative overlap drop threshold of the default 1¹S solves: the three-shell basis keeps
-#: directions down to 1e-14 (the energy still falls from 1e-13 to 1e-14: 1.5e-11 -> 3.8e-12 Eh
-#: above the exact value, measured); the floor is the change at ten times this threshold
+#: directions down to 1e-14 (the energy still falls from 1e-13 to 1e-14, measured); the floor
+#: is the change at ten times this threshold
 GROUND_DROP_THRESHOLD = 1e-14
 
 
 def _shell_basis(shells, Z: float, sign: int, reduction: int):
-    """Complete ``ω - reduction`` shells ``Σ r1^i r2^j r12^k e^{-αZ r1 - βZ r2}`` (CorrelatedBasis)."""
+    """Complete ``ω - reduction`` shells ``Σ r1^i r2^j r12^k e^{-Z(a r1 + b r2 + g r12)}``
+    of ``(ω, a, b, g)`` (CorrelatedBasis)."""
     from twoel.basis.correlated import CorrelatedBasis
     from twoel.basis.hylleraas import omega_terms
 
     powers, exponents = [], []
-    for omega, a, b in shells:
+    for omega, a, b, g in shells:
         terms = omega_terms(omega - reduction, False, sign)
         powers += terms
-        exponents += [(a * Z, b * Z, 0.0)] * len(terms)
+        exponents += [(a * Z, b * Z, g * Z)] * len(terms)
     return CorrelatedBasis(np.array(powers), np.array(exponents, dtype=float), sign=sign)
 
 
@@ -213,8 +219,9 @@ def properties_with_uncertainties(Z, state="1^1S", size: int | None = None,
     notes = []
     if size is None and family is None and st.L == 0 and st.n <= 2 and (st.n == 1 or ion.Z >= 1.5):
         seq = _two_scale_sequence(ion.Z, st)
+        shells = "3 shells, " if _ground_shells(ion.Z, st) else ""
         record = SimpleNamespace(Z=ion.Z, ion=ion.label, state=st.label, size=None,
-                                 family="hylleraas two-scale (nested: ω - 2, ω - 1, ω)",
+                                 family=f"hylleraas two-scale ({shells}nested: ω - 2, ω - 1, ω)",
                                  n_terms=seq[-1][0], energy_hartree=seq[-1][1])
     else:
         seq, main = _family_sequence(ion.Z, st, size, family)
