@@ -142,3 +142,17 @@ def test_the_energy_of_a_properties_run_carries_a_bar_that_covers_it():
     bar = nested.bars["energy"]
     error = abs(bar.value - (-2.903724377034119598))
     assert error <= bar.uncertainty <= 30 * max(error, 1e-15)
+
+
+def test_default_bases_of_the_nested_run():
+    """1¹S (Z >= 1.5) uses the three-shell basis (455 + 165 + 84 functions for ω = 12, 8, 6,
+    nested 405 and 540); H⁻ and 2S states keep the preset basis of the corrections."""
+    from twoel.corrections.spectrum import preset_basis
+    from twoel.properties.nested import two_scale_basis
+    from twoel.system import State
+
+    ground = State.parse("1^1S")
+    assert [two_scale_basis(2.0, ground, r).size for r in (2, 1, 0)] == [405, 540, 704]
+    assert two_scale_basis(10.0, ground).exponents.max() == pytest.approx(70.0)  # 7 Z
+    for Z, state in ((1.0, ground), (2.0, State.parse("2^3S"))):
+        assert two_scale_basis(Z, state).size == preset_basis(Z, state, "default").size
