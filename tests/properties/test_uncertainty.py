@@ -28,6 +28,17 @@ def test_growing_steps_are_flagged():
     assert not bar.reliable and bar.uncertainty >= 5e-8
 
 
+def test_a_value_that_moved_more_in_the_last_step_is_flagged_even_within_the_floor():
+    """Steps within the arithmetic error keep a reliable bar, but a last step larger than the
+    one before (the value did not improve with the largest basis) is flagged; a shrinking
+    sequence is not."""
+    bar = sequence_bar([1.0, 1.0 + 1e-10, 1.0 - 2e-10], floor=1e-9)
+    assert bar.reliable and bar.worsened and "larger" in bar.note
+    assert bar.to_dict()["worsened"] is True
+    assert bar.uncertainty >= 2e-9 + 3e-10
+    assert not sequence_bar([1.0, 1.0 + 1e-8, 1.0 + 1.2e-8], floor=1e-12).worsened
+
+
 def test_negative_delta_beyond_its_bar_is_flagged():
     """A δ expectation is an integral of |Ψ|² (>= 0, exact): negative beyond the bar is flagged."""
     bar = check_nonnegative(sequence_bar([-3.0e-9, -2.6e-9, -2.5e-9]), "delta_r12")
@@ -48,26 +59,75 @@ def test_triplet_delta_r12_is_exactly_zero_in_the_command(capsys):
 
 
 @pytest.fixture(scope="module")
-def ground_default():
-    from twoel.properties.nested import properties_with_uncertainties
+def ground_default(tmp_path_factory):
+    """The default ``twoel properties --Z 2 --json`` in a child process: its JSON record and its
+    peak resident memory (bytes; -1024 where /proc is not available)."""
+    import os
+    import pathlib
+    import subprocess
+    import sys
 
-    return properties_with_uncertainties(2, "1^1S")
+    # the peak of the child's own memory map (VmHWM; ru_maxrss would carry over the high-water
+    # mark of the forked test process across exec on Linux)
+    code = ("import sys\n"
+            "from twoel.cli import main\n"
+            "status = main(['properties', '--Z', '2', '--json'])\n"
+            "peak = [l.split()[1] for l in open('/proc/self/status') if l.startswith('VmHWM:')]\n"
+            "sys.stderr.write('maxrss_kb=%s' % (peak[0] if peak else '-1'))\n"
+            "sys.exit(status)\n")
+    root = pathlib.Path(__file__).resolve().parents[2]
+    env = dict(os.environ, PYTHONPATH=str(root), OPENBLAS_NUM_THREADS="1")
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env,
+                          cwd=tmp_path_factory.mktemp("properties"), timeout=900)
+    assert done.returncode == 0, done.stderr[-2000:]
+    rss_kb = int(done.stderr.rsplit("maxrss_kb=", 1)[1])
+    return json.loads(done.stdout), rss_kb * 1024
 
 
 @pytest.mark.slow
 @pytest.mark.parametrize("name", sorted(PUBLISHED))
 def test_default_bars_cover_the_published_values(ground_default, name):
     """The bar of the default run covers the true error against Drake (2006, from memory)."""
-    bar = ground_default.bars[name]
-    assert abs(bar.value - PUBLISHED[name]) <= bar.uncertainty
+    bar = ground_default[0]["uncertainties"][name]
+    assert abs(bar["value"] - PUBLISHED[name]) <= bar["uncertainty"]
 
 
 @pytest.mark.slow
-@pytest.mark.xfail(strict=True, reason="not met: the float64 eigenvector of the two-scale basis "
-                   "limits <1/r1^2> and the regularized delta(r1) to ~1.3e-8 relative (measured)")
-def test_default_values_within_1e8_relative(ground_default):
-    for name, ref in PUBLISHED.items():
-        assert ground_default.bars[name].value == pytest.approx(ref, rel=1e-8), name
+@pytest.mark.parametrize("name", ["delta_r1_regularized", "inv_r1_squared"])
+def test_default_values_within_1e8_relative(ground_default, name):
+    """Acceptance: ⟨1/r1²⟩ and the regularized δ(r1) of the default He 1¹S run within 1e-8
+    relative of Drake (2006, from memory) (measured +1.8e-9 and +2.1e-9; -0.3e-9 to +2.5e-9 at drop
+    thresholds 1e-13 to 1e-16), each bar reliable and not grown in the last step."""
+    bar = ground_default[0]["uncertainties"][name]
+    assert bar["value"] == pytest.approx(PUBLISHED[name], rel=1e-8)
+    assert bar["reliable"] and not bar["worsened"]
+    assert bar["uncertainty"] <= 1e-7 * PUBLISHED[name]
+
+
+@pytest.mark.slow
+def test_default_delta_r12_within_1e7_relative(ground_default):
+    """The regularized δ(r12) of the default run: -1.6e-8 relative (-1.6e-8 to -2.8e-8 at drop
+    thresholds 1e-13 to 1e-16, measured), so 1e-7 is claimed and its bar covers the scatter;
+    the 1e-8 acceptance target is not met by the float64 eigenvector."""
+    bar = ground_default[0]["uncertainties"]["delta_r12_regularized"]
+    assert bar["value"] == pytest.approx(PUBLISHED["delta_r12_regularized"], rel=1e-7)
+    assert bar["reliable"] and bar["uncertainty"] >= 2.8e-8 * PUBLISHED["delta_r12_regularized"]
+
+
+@pytest.mark.slow
+def test_default_run_flags_what_grew_and_stays_within_its_memory(ground_default):
+    """Every δ value is non-negative; every value whose last nested step is larger than the one
+    before is flagged; the default run's peak memory is at most 400 MB (the acceptance limit)."""
+    record, peak_bytes = ground_default
+    for name, bar in record["uncertainties"].items():
+        if name.startswith("delta"):
+            assert bar["value"] >= 0, name
+        if len(bar["sequence"]) == 3:
+            v0, v1, v2 = bar["sequence"]
+            assert bar["worsened"] == (abs(v2 - v1) > abs(v1 - v0)), name
+    if peak_bytes < 0:
+        pytest.skip("no /proc/self/status to read the peak memory from")
+    assert peak_bytes <= 400e6
 
 
 def test_the_energy_of_a_properties_run_carries_a_bar_that_covers_it():
@@ -82,3 +142,17 @@ def test_the_energy_of_a_properties_run_carries_a_bar_that_covers_it():
     bar = nested.bars["energy"]
     error = abs(bar.value - (-2.903724377034119598))
     assert error <= bar.uncertainty <= 30 * max(error, 1e-15)
+
+
+def test_default_bases_of_the_nested_run():
+    """1¹S (Z >= 1.5) uses the three-shell basis (455 + 165 + 84 functions for ω = 12, 8, 6,
+    nested 405 and 540); H⁻ and 2S states keep the preset basis of the corrections."""
+    from twoel.corrections.spectrum import preset_basis
+    from twoel.properties.nested import two_scale_basis
+    from twoel.system import State
+
+    ground = State.parse("1^1S")
+    assert [two_scale_basis(2.0, ground, r).size for r in (2, 1, 0)] == [405, 540, 704]
+    assert two_scale_basis(10.0, ground).exponents.max() == pytest.approx(70.0)  # 7 Z
+    for Z, state in ((1.0, ground), (2.0, State.parse("2^3S"))):
+        assert two_scale_basis(Z, state).size == preset_basis(Z, state, "default").size

@@ -55,7 +55,9 @@ def _value_text(key, value, bars) -> str:
     if not bar.reliable and "negative" in bar.note:
         return "flagged: negative beyond its uncertainty (not a value)"
     text = group_digits(format_uncertain(bar.value, bar.uncertainty))
-    return text if bar.reliable else text + " [unreliable]"
+    if not bar.reliable:
+        return text + " [unreliable]"
+    return text + " [not improved by the largest basis]" if bar.worsened else text
 
 
 def summary_text(result, values, bars=None) -> str:
@@ -72,7 +74,7 @@ def summary_text(result, values, bars=None) -> str:
         lines.append("note: uncertainties from the nested bases (last digits in parentheses); "
                      "[unreliable]: irregular sequence, see the JSON notes")
         for key, bar in bars.items():
-            if bar.uncertainty == 0 or not bar.reliable:
+            if bar.uncertainty == 0 or not bar.reliable or bar.worsened:
                 lines.append(f"note: {key}: {bar.note}")
     for note in values.notes:
         lines.append(f"note: {note}")

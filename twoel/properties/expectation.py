@@ -152,7 +152,8 @@ def _unpack(obj) -> tuple[object, np.ndarray, str | None]:
 
 
 def _primitive_coefficients(basis, coefficients: np.ndarray) -> np.ndarray:
-    if coefficients.ndim != 1 or coefficients.shape[0] != basis.size:
+    """Primitive coefficients of a vector (or of the columns of a matrix) of the basis."""
+    if coefficients.ndim not in (1, 2) or coefficients.shape[0] != basis.size:
         raise InputError(f"coefficients must be a vector of length {basis.size}")
     return coefficients if basis.contraction is None else basis.contraction @ coefficients
 
@@ -253,23 +254,29 @@ def _sub_basis(basis, index: np.ndarray):
     return CorrelatedBasis(basis.powers[index], basis.exponents[index], sign=basis.sign)
 
 
+def _quadratic(a: np.ndarray, m: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """``a[:, k]^T m b[:, k]`` for every column ``k``."""
+    return np.einsum("ik,ik->k", a, m @ b)
+
+
 def _blocked_values(basis, d: np.ndarray, ops: dict, probe: bool = False) -> dict:
-    """``d^T M d`` (primitive coefficients ``d``) of each operator, from blocks of primitives.
+    """``d_k^T M d_k`` (primitive coefficients, one column ``d_k`` each) of each operator, from
+    blocks of primitives.
 
     The primitives are split into groups of :data:`BLOCK_PRIMITIVES`; the basis made of two
     groups gives their diagonal and cross blocks, so memory stays that of a BLOCK_PRIMITIVES-function
     evaluation whatever the size.  ``probe``: evaluate one tiny block only (does the basis
-    support the operators?).
+    support the operators?).  Returns arrays over the columns of ``d`` (shape (P, K)).
     """
     P = basis.powers.shape[0]
     if probe:
         operator_matrices(_sub_basis(basis, np.arange(min(P, 2))), ops)
         return {}
     groups = [np.arange(s, min(s + BLOCK_PRIMITIVES, P)) for s in range(0, P, BLOCK_PRIMITIVES)]
-    out = {name: 0.0 for name in ops}
+    out = {name: np.zeros(d.shape[1]) for name in ops}
     if len(groups) == 1:
         mats = operator_matrices(_sub_basis(basis, groups[0]), ops)
-        return {name: float(d @ m @ d) for name, m in mats.items()}
+        return {name: _quadratic(d, m, d) for name, m in mats.items()}
     for i in range(len(groups)):
         for j in range(i + 1, len(groups)):
             index = np.concatenate([groups[i], groups[j]])
@@ -277,63 +284,74 @@ def _blocked_values(basis, d: np.ndarray, ops: dict, probe: bool = False) -> dic
             n_i = groups[i].shape[0]
             di, dj = d[groups[i]], d[groups[j]]
             for name, m in mats.items():
-                total = 2.0 * float(di @ m[:n_i, n_i:] @ dj)
+                total = 2.0 * _quadratic(di, m[:n_i, n_i:], dj)
                 if j == i + 1 and i == 0:
-                    total += float(di @ m[:n_i, :n_i] @ di)
+                    total += _quadratic(di, m[:n_i, :n_i], di)
                 if i == 0 and j >= 1:
                     # the diagonal block of group j is taken from its first pairing (with group 0)
-                    total += float(dj @ m[n_i:, n_i:] @ dj)
+                    total += _quadratic(dj, m[n_i:, n_i:], dj)
                 out[name] += total
     return out
 
 
-def _operator_averages(basis, c: np.ndarray, Z: float, repulsion, notes: list):
-    """Operator matrices, their normalized expectation values, the norm and whether ``⟨p1⁴⟩`` can be had.
+def _operator_averages(basis, C: np.ndarray, Z: float, repulsion, notes: list):
+    """Operator matrices, the normalized expectation values and norms of the columns of ``C``
+    (one coefficient vector each), and whether ``⟨p1⁴⟩`` can be had.
 
     Returns
     -------
-    mats, averages, norm, p4_ok
+    mats, averages (one dict per column), norms (array), p4_ok
     """
     ops = _operators(Z, float(repulsion))
     extra = {name: ops.pop(name) for name in HEAVY}
     p4_ok = True
     try:
         mats = _matrices_in_groups(basis, ops)
-        _blocked_values(basis, np.zeros(basis.powers.shape[0]), {"p1sq_p2sq": extra["p1sq_p2sq"]}, probe=True)
+        _blocked_values(basis, np.zeros((basis.powers.shape[0], 1)), {"p1sq_p2sq": extra["p1sq_p2sq"]}, probe=True)
     except InputError:
         extra.pop("p1sq_p2sq")
         mats = _matrices_in_groups(basis, ops)
         p4_ok = False
         notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
-    values = {name: float(c @ m @ c) for name, m in mats.items()}
+    values = {name: _quadratic(C, m, C) for name, m in mats.items()}
     heavy = {name: spec for name, spec in extra.items() if name not in mats}
-    values.update(_blocked_values(basis, _primitive_coefficients(basis, c), heavy))
-    norm = values["overlap"]
-    if not norm > 0:
+    values.update(_blocked_values(basis, _primitive_coefficients(basis, C), heavy))
+    norms = values["overlap"]
+    if not np.all(norms > 0):
         raise InputError("the wave function has zero norm")
-    return mats, {name: value / norm for name, value in values.items()}, norm, p4_ok
+    averages = [{name: float(value[k] / norms[k]) for name, value in values.items()}
+                for k in range(C.shape[1])]
+    return mats, averages, norms, p4_ok
 
 
-def _coalescence(basis, c: np.ndarray, norm: float, E: float, averages: dict, Z: float, repulsion,
-                 notes: list) -> dict:
-    """δ functions, direct and regularized (bohr⁻³), and the Kato cusp ratios (``nan`` if undefined).
+def _coalescence(basis, C: np.ndarray, norms: np.ndarray, energies, averages: list, Z: float,
+                 repulsion, notes: list) -> list:
+    """δ functions, direct and regularized (bohr⁻³), and the Kato cusp ratios (``nan`` if
+    undefined), one dict per column of ``C``.
 
-    ``averages`` are the float64 expectation values (before any refinement) and ``E`` their energy.
+    ``averages`` are the float64 expectation values (before any refinement) and ``energies``
+    their energies.
     """
-    d = _primitive_coefficients(basis, c)
-    co = {k: float(d @ m @ d) / norm for k, m in op.coalescence_matrices(basis).items()}
-    delta_r1, delta_r12 = co["delta_r1"], co["delta_r12"]
-    cusp_nucleus = co["cusp_r1"] / delta_r1 if delta_r1 > 0 else float("nan")
-    if basis.sign > 0 and delta_r12 > 0:
-        cusp_electron = co["cusp_r12"] / delta_r12
-    else:
-        cusp_electron = float("nan")
-        notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
-                     "r12 = 0, so ⟨δ³(r12)⟩ = 0")
-    return {"delta_r1": delta_r1, "delta_r12": delta_r12,
-            "delta_r1_regularized": op.delta_r1_regularized(E, averages, Z, repulsion),
-            "delta_r12_regularized": op.delta_r12_regularized(E, averages, Z, repulsion),
-            "cusp_nucleus": cusp_nucleus, "cusp_electron": cusp_electron}
+    d = _primitive_coefficients(basis, C)
+    matrices = op.coalescence_matrices(basis)
+    out = []
+    for k, (E, v) in enumerate(zip(energies, averages)):
+        co = {name: float(_quadratic(d[:, k:k + 1], m, d[:, k:k + 1])[0]) / norms[k]
+              for name, m in matrices.items()}
+        delta_r1, delta_r12 = co["delta_r1"], co["delta_r12"]
+        cusp_nucleus = co["cusp_r1"] / delta_r1 if delta_r1 > 0 else float("nan")
+        if basis.sign > 0 and delta_r12 > 0:
+            cusp_electron = co["cusp_r12"] / delta_r12
+        else:
+            cusp_electron = float("nan")
+            if k == 0:
+                notes.append("electron-electron cusp undefined: the triplet wave function vanishes at "
+                             "r12 = 0, so ⟨δ³(r12)⟩ = 0")
+        out.append({"delta_r1": delta_r1, "delta_r12": delta_r12,
+                    "delta_r1_regularized": op.delta_r1_regularized(E, v, Z, repulsion),
+                    "delta_r12_regularized": op.delta_r12_regularized(E, v, Z, repulsion),
+                    "cusp_nucleus": cusp_nucleus, "cusp_electron": cusp_electron})
+    return out
 
 
 def _refined_averages(obj, basis, mats, c: np.ndarray, Z: float, E: float, averages: dict,
@@ -381,24 +399,70 @@ def expectation_values(result_or_wavefunction, Z: float | None = None, *,
     """
     Z = _checked_charge(result_or_wavefunction, Z, repulsion)
     basis, c, state = _correlated_state(result_or_wavefunction)
+    if c.ndim != 1 or c.shape[0] != basis.size:
+        raise InputError(f"coefficients must be a vector of length {basis.size}")
     notes = []
-    mats, v, norm, p4_ok = _operator_averages(basis, c, Z, repulsion, notes)
-    T = v["kinetic"]
-    V = -Z * v["nuclear"] + repulsion * v["repulsion"]
-    E = T + V
-    co = _coalescence(basis, c, norm, E, v, Z, repulsion, notes)
-    p1_fourth = op.p1_fourth(E, v, Z, repulsion) if p4_ok else None
+    mats, (fields,) = _column_values(basis, c[:, None], Z, repulsion, notes)
     if refine is None:
         refine = isinstance(result_or_wavefunction, EnergyResult) and _refinable(basis, repulsion)
-    virial_ratio = -V / T
     if refine:
         if not _refinable(basis, repulsion):
             raise UnsupportedError("refinement needs a zero-power, uncontracted S basis and the "
                                    "physical Hamiltonian (repulsion = 1)")
-        virial_ratio = _refined_averages(result_or_wavefunction, basis, mats, c, Z, E, v, notes)
-    return ExpectationValues(
-        Z=Z, state=state, n_terms=int(basis.size), energy_hartree=E, kinetic_hartree=T,
-        potential_hartree=V, r1=v["r1"], r1_squared=v["r1_squared"], inv_r1=v["inv_r1"],
-        inv_r1_squared=v["inv_r1_squared"], r12=v["r12"], r12_squared=v["r12_squared"],
-        inv_r12=v["inv_r12"], grad1_dot_grad2=-v["p1_dot_p2"], p1_fourth=p1_fourth,
-        virial_ratio=virial_ratio, normalization=norm, notes=tuple(notes), **co)
+        v = fields.pop("averages")
+        fields["virial_ratio"] = _refined_averages(result_or_wavefunction, basis, mats, c, Z,
+                                                   fields["energy_hartree"], v, notes)
+        fields.update({name: v[key] for name, key in _MOMENT_FIELDS.items()})
+    fields.pop("averages", None)
+    return ExpectationValues(Z=Z, state=state, n_terms=int(basis.size), notes=tuple(notes), **fields)
+
+
+#: fields of :class:`ExpectationValues` taken from the operator averages of the same name
+_MOMENT_FIELDS = {name: name for name in ("r1", "r1_squared", "inv_r1", "inv_r1_squared", "r12",
+                                          "r12_squared", "inv_r12")}
+
+
+def _column_values(basis, C: np.ndarray, Z: float, repulsion, notes: list):
+    """The float64 fields of :class:`ExpectationValues` (plus ``"averages"``) of each column of
+    ``C``; returns the light operator matrices and one dict per column."""
+    mats, averages, norms, p4_ok = _operator_averages(basis, C, Z, repulsion, notes)
+    energies, out = [], []
+    for v in averages:
+        T, V = v["kinetic"], -Z * v["nuclear"] + repulsion * v["repulsion"]
+        energies.append(T + V)
+        out.append({"energy_hartree": T + V, "kinetic_hartree": T, "potential_hartree": V,
+                    "grad1_dot_grad2": -v["p1_dot_p2"], "virial_ratio": -V / T,
+                    "p1_fourth": op.p1_fourth(T + V, v, Z, repulsion) if p4_ok else None,
+                    **{name: v[key] for name, key in _MOMENT_FIELDS.items()}})
+    for k, co in enumerate(_coalescence(basis, C, norms, energies, averages, Z, repulsion, notes)):
+        out[k].update(co, normalization=float(norms[k]), averages=averages[k])
+    return mats, out
+
+
+def expectation_values_of_vectors(basis, vectors, Z: float, *,
+                                  repulsion: float = 1.0) -> list[ExpectationValues]:
+    """:func:`expectation_values` (float64, no refinement) of several coefficient vectors of one
+    basis, the operator matrices evaluated once.
+
+    Parameters
+    ----------
+    basis : CorrelatedBasis or PBasis
+        The basis of every vector.
+    vectors : array_like, shape (N, K)
+        One coefficient vector per column.
+    Z : float
+        Nuclear charge.
+    repulsion : float
+        As in :func:`expectation_values`.
+    """
+    C = np.asarray(vectors, dtype=float)
+    if C.ndim != 2:
+        raise InputError("'vectors' must be a matrix with one coefficient vector per column")
+    Z = _checked_charge(Wavefunction(basis, C[:, 0]), Z, repulsion)
+    basis, _c, _state = _correlated_state(Wavefunction(basis, C[:, 0]))
+    notes: list = []
+    _mats, columns = _column_values(basis, C, Z, repulsion, notes)
+    for fields in columns:
+        fields.pop("averages")
+    return [ExpectationValues(Z=Z, state=None, n_terms=int(basis.size), notes=tuple(notes), **f)
+            for f in columns]

@@ -7,13 +7,20 @@ change of the value when the float64 solve drops ten times more near-dependent o
 directions.
 
 Default basis
-    For ``1¹S``, ``2¹S`` and ``2³S`` the two-scale Hylleraas basis of the corrections
-    (:func:`twoel.corrections.spectrum.preset_basis`, quality ``"default"``) and its two nested
-    predecessors with every shell's ``ω`` lowered by 1 and by 2.  Its regularized δ values and
-    ``⟨1/r1²⟩`` are ~1e-8 relative for He 1¹S, where the default exponential basis (N = 600)
-    is ~1e-6 off: the float64 eigenvector of a large exponential basis is limited by the
+    For ``1¹S`` (Z >= 1.5) the three-shell two-scale Hylleraas basis :data:`GROUND_SHELLS`
+    (tuned for the expectation values: its inner shell carries both electrons near the
+    nucleus) solved at the overlap drop threshold :data:`GROUND_DROP_THRESHOLD`; for ``2¹S``,
+    ``2³S`` and H⁻ the two-scale basis of the corrections
+    (:func:`twoel.corrections.spectrum.preset_basis`, quality ``"default"``).  The nested
+    predecessors lower every shell's ``ω`` by 1 and by 2.  For He 1¹S (704 functions) the
+    default run gives ``⟨1/r1²⟩`` and the regularized δ(r1) to ~3e-9 relative and δ(r12) to a few
+    1e-8 (measured against Drake 2006), where the default exponential basis (N = 600) is
+    ~1e-6 off: the float64 eigenvector of a large exponential basis is limited by the
     conditioning of its overlap (it reaches the energy only through the refined vector, which
     the δ operators cannot use: they need ``I(-2, b, c)`` integrals that exist in float64 only).
+    The float64 Hylleraas eigenvector itself is the limit of these three values: they move by
+    ~1e-9 (δ(r12): ~5e-8) relative when the drop threshold changes tenfold (the floor of the
+    bars).
     With ``size`` or ``family`` given (and for every other state): that family via
     :func:`twoel.analysis.transitions.solve_state`, sizes ``N/2, N/√2, N``.
 
@@ -30,7 +37,8 @@ from types import SimpleNamespace
 
 import numpy as np
 
-from twoel.properties.expectation import ExpectationValues, expectation_values
+from twoel.properties.expectation import (ExpectationValues, expectation_values,
+                                          expectation_values_of_vectors)
 from twoel.properties.uncertainty import PropertyBar, check_nonnegative, exact, sequence_bar
 from twoel.results import Wavefunction
 from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, solve_generalized
@@ -72,12 +80,51 @@ class NestedProperties:
     notes: tuple = field(default=())
 
 
+#: the three-shell two-scale Hylleraas basis of the default 1¹S run (Z >= 1.5): per shell
+#: ``(ω, α/Z, β/Z, γ/Z)`` of ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}``, i + j + k <= ω.
+#: Chosen for the expectation values rather than for the energy: the inner shell (α, β ~ 6Z)
+#: carries both electrons near the nucleus, which ``⟨1/r1²⟩`` and ``⟨δ³(r1)⟩`` weight.
+#: Measured for He (704 functions, against Drake 2006): ``⟨1/r1²⟩`` and the regularized
+#: ``⟨δ³(r1)⟩`` +1.8e-9 and +2.1e-9 relative (-0.3e-9 to +2.5e-9 at drop thresholds 1e-13 to
+#: 1e-16), the regularized ``⟨δ³(r12)⟩`` -1.6e-8 (-1.6e-8 to -2.8e-8: float64 scatter), energy
+#: 4e-12 Eh above the exact value; the two-shell preset of the corrections gives 1.3e-8,
+#: 1.4e-8, -7e-9 and 3e-11 Eh.  (An r12 exponent e^{+0.15 Z r12} on the middle shell moved
+#: δ(r12) to -2e-9 at 1e-14 but -3e-8 to -7e-8 at the other thresholds: no gain.)
+GROUND_SHELLS = ((12, 0.9, 1.1, 0.0), (8, 2.25, 3.0, 0.0), (6, 6.0, 7.0, 0.0))
+#: relative overlap drop threshold of the default 1¹S solves: the three-shell basis keeps
+#: directions down to 1e-14 (the energy still falls from 1e-13 to 1e-14, measured); the floor
+#: is the change at ten times this threshold
+GROUND_DROP_THRESHOLD = 1e-14
+
+
+def _shell_basis(shells, Z: float, sign: int, reduction: int):
+    """Complete ``ω - reduction`` shells ``Σ r1^i r2^j r12^k e^{-Z(a r1 + b r2 + g r12)}``
+    of ``(ω, a, b, g)`` (CorrelatedBasis)."""
+    from twoel.basis.correlated import CorrelatedBasis
+    from twoel.basis.hylleraas import omega_terms
+
+    powers, exponents = [], []
+    for omega, a, b, g in shells:
+        terms = omega_terms(omega - reduction, False, sign)
+        powers += terms
+        exponents += [(a * Z, b * Z, g * Z)] * len(terms)
+    return CorrelatedBasis(np.array(powers), np.array(exponents, dtype=float), sign=sign)
+
+
+def _ground_shells(Z: float, state: State) -> bool:
+    return state.n == 1 and state.L == 0 and Z >= 1.5
+
+
 def two_scale_basis(Z: float, state: State, reduction: int = 0):
-    """The preset two-scale Hylleraas basis with every shell's ``ω`` lowered by ``reduction``."""
+    """The default two-scale Hylleraas basis of a properties run with every shell's ``ω``
+    lowered by ``reduction``: :data:`GROUND_SHELLS` for 1¹S (Z >= 1.5), else the preset
+    basis of the corrections (:func:`twoel.corrections.spectrum.preset_basis`, ``"default"``)."""
     from twoel.basis.correlated import CorrelatedBasis
     from twoel.basis.hylleraas import omega_terms
     from twoel.corrections.spectrum import preset_basis
 
+    if _ground_shells(Z, state):
+        return _shell_basis(GROUND_SHELLS, Z, state.exchange_sign, reduction)
     full = preset_basis(Z, state, "default")
     keep = []
     start = 0
@@ -95,14 +142,20 @@ def two_scale_basis(Z: float, state: State, reduction: int = 0):
     return CorrelatedBasis(full.powers[keep], full.exponents[keep], sign=full.sign)
 
 
-def _values_and_floor(wavefunction, Z: float, hamiltonian, overlap, root: int, refine):
-    """Values of ``wavefunction`` and of the vector of a 10x drop threshold (the floor)."""
-    values = expectation_values(wavefunction, Z, refine=refine)
+def _values_and_floor(wavefunction, Z: float, hamiltonian, overlap, root: int, refine,
+                      threshold: float = DEFAULT_DROP_THRESHOLD):
+    """Values of ``wavefunction`` (solved at the drop ``threshold``) and of the vector of a 10x
+    drop threshold (the floor)."""
     coarse = solve_generalized(hamiltonian, overlap,
-                               drop_threshold=DROP_SENSITIVITY_FACTOR * DEFAULT_DROP_THRESHOLD)
+                               drop_threshold=DROP_SENSITIVITY_FACTOR * threshold)
     c = np.asarray(wavefunction.coefficients, float)
     pick = int(np.argmax(np.abs(coarse.vectors.T @ (overlap @ c))))
-    other = expectation_values(Wavefunction(wavefunction.basis, coarse.vectors[:, pick]), Z, refine=False)
+    if refine:
+        values = expectation_values(wavefunction, Z, refine=refine)
+        other = expectation_values(Wavefunction(wavefunction.basis, coarse.vectors[:, pick]), Z, refine=False)
+    else:  # both vectors from one evaluation of the operator matrices
+        values, other = expectation_values_of_vectors(
+            wavefunction.basis, np.column_stack([c, coarse.vectors[:, pick]]), Z)
     floors = {}
     energy = float(c @ hamiltonian @ c / (c @ overlap @ c))
     # the energy of a refined (beyond float64) solve does not feel the dropped directions
@@ -118,13 +171,14 @@ def _values_and_floor(wavefunction, Z: float, hamiltonian, overlap, root: int, r
 
 def _two_scale_sequence(Z: float, state: State):
     out = []
+    threshold = GROUND_DROP_THRESHOLD if _ground_shells(Z, state) else DEFAULT_DROP_THRESHOLD
     for reduction in REDUCTIONS:
         basis = two_scale_basis(Z, state, reduction)
         m = basis.matrices()
         H = m.hamiltonian(Z)
-        sol = solve_generalized(H, m.overlap)
+        sol = solve_generalized(H, m.overlap, drop_threshold=threshold)
         wf = Wavefunction(basis, sol.vectors[:, state.root])
-        values, floors = _values_and_floor(wf, Z, H, m.overlap, state.root, False)
+        values, floors = _values_and_floor(wf, Z, H, m.overlap, state.root, False, threshold)
         out.append((basis.size, float(sol.values[state.root]), values, floors))
     return out
 
@@ -165,8 +219,9 @@ def properties_with_uncertainties(Z, state="1^1S", size: int | None = None,
     notes = []
     if size is None and family is None and st.L == 0 and st.n <= 2 and (st.n == 1 or ion.Z >= 1.5):
         seq = _two_scale_sequence(ion.Z, st)
+        shells = "3 shells, " if _ground_shells(ion.Z, st) else ""
         record = SimpleNamespace(Z=ion.Z, ion=ion.label, state=st.label, size=None,
-                                 family="hylleraas two-scale (nested: ω - 2, ω - 1, ω)",
+                                 family=f"hylleraas two-scale ({shells}nested: ω - 2, ω - 1, ω)",
                                  n_terms=seq[-1][0], energy_hartree=seq[-1][1])
     else:
         seq, main = _family_sequence(ion.Z, st, size, family)

@@ -20,7 +20,12 @@ either sign), so :func:`sequence_bar` is a documented variant of
 
 A value whose last step is at or below twice the floor is "converged to the arithmetic error": its
 bar is ``2·floor + max(|d1|, |d2|)`` (measured for He 1¹S: the float64 error of ``⟨1/r1²⟩`` and
-the regularized δ(r1) is up to ~2x the drop-threshold change).
+the regularized δ(r1) is up to ~5x the drop-threshold change, so the geometric tail of shrinking
+steps would not cover it).
+
+Every bar whose last step is larger than the one before (the value moved more as the basis
+grew) is flagged ``worsened``, also when the steps are within the arithmetic error and the bar
+stays reliable: such a value did not get better with the largest basis.
 """
 
 from __future__ import annotations
@@ -53,6 +58,8 @@ class PropertyBar:
         The values of the nested bases, smallest first.
     floor : float
         The arithmetic part of the uncertainty.
+    worsened : bool
+        The last step of the sequence is larger than the one before (flagged, see the module).
     """
 
     value: float
@@ -61,10 +68,12 @@ class PropertyBar:
     note: str = ""
     sequence: tuple = field(default=())
     floor: float = 0.0
+    worsened: bool = False
 
     def to_dict(self) -> dict:
         return {"value": self.value, "uncertainty": self.uncertainty, "reliable": self.reliable,
-                "note": self.note, "sequence": list(self.sequence), "arithmetic_floor": self.floor}
+                "note": self.note, "sequence": list(self.sequence), "arithmetic_floor": self.floor,
+                "worsened": self.worsened}
 
 
 def exact(value: float, note: str) -> PropertyBar:
@@ -87,11 +96,21 @@ def sequence_bar(values, floor: float = 0.0) -> PropertyBar:
         raise InputError("an uncertainty from nested bases needs three finite values")
     floor = max(float(floor), 0.0) if math.isfinite(floor) else abs(v[-1])
     d1, d2 = v[-2] - v[-3], v[-1] - v[-2]
+    worsened = abs(d2) > abs(d1)
+    regular = d1 * d2 > 0 and abs(d2) < abs(d1)
+    sign = -1.0 if d2 > 0 else 1.0  # orient so that the sequence decreases
     if abs(d2) <= 2 * floor:
-        return PropertyBar(v[-1], 2 * floor + max(abs(d1), abs(d2)), True,
-                           "steps at the level of the arithmetic error: converged to it", tuple(v), floor)
-    if d1 * d2 > 0 and abs(d2) < abs(d1):
-        sign = -1.0 if d2 > 0 else 1.0  # orient so that the sequence decreases
+        note = "steps at the level of the arithmetic error: converged to it"
+        # not the tail of the shrinking steps: the floor (one tenfold threshold change) can
+        # underestimate the float64 scatter (measured for He 1¹S ⟨1/r1²⟩ in a three-shell
+        # basis tried: error 2.5e-9 relative, floor 5e-10, tail 2e-10), so the earlier step
+        # stays in the bar
+        truncation = max(abs(d1), abs(d2))
+        if worsened:
+            note += ("; the last step is larger than the one before (the value did not improve "
+                     "with the largest basis)")
+        return PropertyBar(v[-1], 2 * floor + truncation, True, note, tuple(v), floor, worsened)
+    if regular:
         tail = estimate_tail([sign * x for x in v], floor)
         bar = BAR_FACTOR * tail.tail_hartree + floor
         return PropertyBar(v[-1], bar, tail.reliable, tail.note or
@@ -102,7 +121,7 @@ def sequence_bar(values, floor: float = 0.0) -> PropertyBar:
     note = ("the value moved more in the last step than in the one before (irregular: bar from "
             "the steps, may not cover)" if grows else
             f"steps change sign: bar {STEP_FACTOR:g} x the last step")
-    return PropertyBar(v[-1], bar, not grows, note, tuple(v), floor)
+    return PropertyBar(v[-1], bar, not grows, note, tuple(v), floor, worsened)
 
 
 def check_nonnegative(bar: PropertyBar, name: str) -> PropertyBar:
@@ -110,5 +129,5 @@ def check_nonnegative(bar: PropertyBar, name: str) -> PropertyBar:
     if bar.value < 0 and -bar.value > bar.uncertainty:
         note = (f"{name} came out negative ({bar.value:.3e}) beyond its uncertainty "
                 f"({bar.uncertainty:.1e}); a δ expectation cannot be negative: not a value")
-        return PropertyBar(bar.value, bar.uncertainty, False, note, bar.sequence, bar.floor)
+        return PropertyBar(bar.value, bar.uncertainty, False, note, bar.sequence, bar.floor, bar.worsened)
     return bar
