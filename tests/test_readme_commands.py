@@ -27,7 +27,7 @@ OUTPUT_OPTIONS = ("--out", "--output")
 #: README commands measured above ~10 s (OPENBLAS_NUM_THREADS=1, 2 busy cores): wall seconds
 SLOW = {
     "twoel properties --Z 2 --state 2^3S --json": 17,
-    "twoel properties --Z 2 --hylleraas-preset default": 50,  # nested bases for the uncertainties
+    "twoel properties --Z 2": 50,  # nested bases for the uncertainties
     "twoel spectrum --Z 2 --state 1^1S": 12,  # named twice in the README: 12 s and 19 s
     "twoel spectrum --Z 2 --state 2^3S --details": 15,
     "twoel spectrum --Z Li --isotope 6 --json": 19,
