@@ -196,6 +196,63 @@ def atomic_write_text(path, text: str, *, encoding: str = "utf-8", overwrite: bo
     return atomic_write_bytes(path, text.encode(encoding), overwrite=overwrite)
 
 
+#: the largest input file (configuration, provenance, rows) read by default (bytes)
+MAX_INPUT_BYTES = 64 * 2**20
+
+
+def shown_path(path) -> str:
+    """``repr`` of a path for a one-line message (a very long name is cut)."""
+    text = os.fspath(path) if not isinstance(path, str) else path
+    text = text if isinstance(text, str) else os.fsdecode(text)
+    return repr(text if len(text) <= 160 else text[:80] + "..." + text[-40:])
+
+
+def read_input_bytes(path, what: str = "file", max_bytes: int = MAX_INPUT_BYTES) -> bytes:
+    """The bytes of a user-named input file, every failure one :class:`InputError` line.
+
+    Refused before reading: a missing path (``no such {what}``), one that is not a regular
+    file (a folder, a FIFO that would block, a device), a name the system cannot take (too
+    long, a NUL byte), and a file above ``max_bytes`` (:class:`~twoel.errors.ResourceError`).
+    """
+    from twoel.errors import ResourceError
+
+    target = Path(path)
+    shown = shown_path(path)
+    try:
+        info = os.stat(target)
+    except (FileNotFoundError, NotADirectoryError):
+        raise InputError(f"no such {what}: {shown}") from None
+    except OSError as exc:
+        raise InputError(f"cannot read {what} {shown}: {exc.strerror or exc}") from None
+    except ValueError as exc:                     # an embedded NUL byte
+        raise InputError(f"cannot read {what} {shown}: {exc}") from None
+    kind = _kind(info.st_mode)
+    if kind is not None:
+        kind = kind if kind.startswith("not ") else f"is {kind}, not a regular file"
+        raise InputError(f"{what} {shown} {kind}")
+    if info.st_size > max_bytes:
+        raise ResourceError(f"{what} {shown}: {info.st_size / 2**20:.1f} MiB exceeds the limit of "
+                            f"{max_bytes / 2**20:g} MiB")
+    try:
+        with target.open("rb") as handle:
+            raw = handle.read(max_bytes + 1)
+    except OSError as exc:
+        raise InputError(f"cannot read {what} {shown}: {exc.strerror or exc}") from None
+    if len(raw) > max_bytes:
+        raise ResourceError(f"{what} {shown} exceeds the limit of {max_bytes / 2**20:g} MiB")
+    return raw
+
+
+def read_input_text(path, what: str = "file", max_bytes: int = MAX_INPUT_BYTES) -> str:
+    """:func:`read_input_bytes` decoded as UTF-8 (a byte-order mark is dropped)."""
+    raw = read_input_bytes(path, what, max_bytes)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{what} {shown_path(path)}: not UTF-8 text (byte {exc.start}); "
+                         "save it as UTF-8") from None
+
+
 def _protected(folder: Path) -> str | None:
     """Why ``folder`` (resolved) must never be replaced, or ``None``."""
     cwd = Path.cwd().resolve()

@@ -16,7 +16,7 @@ import warnings
 
 from twoel._version import __version__
 from twoel.errors import TwoelError
-from twoel.cli.common import TwoelArgumentParser
+from twoel.cli.common import TwoelArgumentParser, one_line
 
 #: modules of twoel.cli that define a command, in help order
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
@@ -49,7 +49,7 @@ def main(argv: list[str] | None = None) -> int:
             warnings.simplefilter("ignore")  # warnings are carried in the results and printed there
             return int(args.run(args) or 0)
     except TwoelError as exc:
-        sys.stderr.write(f"twoel: error: {exc}\n")
+        sys.stderr.write(f"twoel: error: {one_line(exc)}\n")
         return 2
     except KeyboardInterrupt:
         sys.stderr.write("twoel: interrupted\n")
@@ -59,7 +59,7 @@ def main(argv: list[str] | None = None) -> int:
     except Exception as exc:  # pragma: no cover - last line of defence
         if args.debug:
             raise
-        sys.stderr.write(f"twoel: internal error: {type(exc).__name__}: {exc} "
+        sys.stderr.write(f"twoel: internal error: {type(exc).__name__}: {one_line(exc)} "
                          "(rerun with --debug for a traceback and please report it)\n")
         return 3
 

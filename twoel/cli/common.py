@@ -10,11 +10,24 @@ from twoel.errors import InputError
 from twoel.io import dumps_json  # noqa: F401  (re-exported: the CLI's JSON encoder lives in twoel.io)
 
 
+#: the longest error message printed (characters); a longer one keeps its start and end
+MAX_MESSAGE = 1000
+
+
+def one_line(message) -> str:
+    """``message`` as one line of at most :data:`MAX_MESSAGE` characters (line breaks become
+    spaces; the middle of a longer text, e.g. a quoted huge value, is cut)."""
+    text = " ".join(str(message).split())
+    if len(text) > MAX_MESSAGE:
+        text = f"{text[:MAX_MESSAGE - 220]} ... ({len(text)} characters) ... {text[-160:]}"
+    return text
+
+
 class TwoelArgumentParser(argparse.ArgumentParser):
     """An argument parser whose errors are one line on stderr and exit status 2."""
 
     def error(self, message: str):  # noqa: D401 - argparse API
-        self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+        self.exit(2, f"{self.prog}: error: {one_line(message)} (see '{self.prog} --help')\n")
 
 
 #: the largest integer any integer option accepts (far beyond any sensible size, count or job number)
