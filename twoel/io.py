@@ -25,6 +25,7 @@ import shutil
 import signal
 import stat
 import tempfile
+import threading
 from pathlib import Path
 
 from twoel.errors import InputError
@@ -174,7 +175,9 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
     if not overwrite and (mode is not None or os.path.lexists(target)):
         raise InputError(f"{str(target)!r} exists; refusing to overwrite it")
     try:
-        fd, tmp_name = tempfile.mkstemp(prefix=f".{real.name}.", suffix=".tmp", dir=folder)
+        with _UNFINISHED_LOCK:
+            fd, tmp_name = tempfile.mkstemp(prefix=f".{real.name}.", suffix=".tmp", dir=folder)
+            _UNFINISHED.add(Path(tmp_name))
     except OSError as exc:
         raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r}: {exc.strerror}") from None
     try:
@@ -183,10 +186,13 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
             handle.flush()
             os.fsync(handle.fileno())
         os.chmod(tmp_name, _default_mode() if mode is None else mode)
-        os.replace(tmp_name, real)
+        with _UNFINISHED_LOCK:
+            os.replace(tmp_name, real)
+            _UNFINISHED.discard(Path(tmp_name))
     except BaseException:
         with contextlib.suppress(FileNotFoundError):
             os.unlink(tmp_name)
+        _UNFINISHED.discard(Path(tmp_name))
         raise
     return target
 
@@ -311,6 +317,33 @@ def _make_parent(target: Path) -> Path:
         raise InputError(f"cannot create {str(target)!r} in {str(parent)!r}: {exc.strerror}") from None
 
 
+#: temporary files and folders being written now (removed by :func:`remove_unfinished`)
+_UNFINISHED: set[Path] = set()
+#: held while a temporary is made or moved into place, and by :func:`remove_unfinished` for good
+_UNFINISHED_LOCK = threading.Lock()
+
+
+def remove_unfinished(timeout: float = 3.0) -> list[Path]:
+    """Delete every temporary file and folder twoel is writing now; for a process about to end.
+
+    Called by the command line when a signal stops a command whose body runs in a worker thread
+    (:mod:`twoel.cli.interrupt`).  The lock is taken and never given back, so the worker can
+    neither make a new temporary nor move one into place afterwards; the process must end right
+    after.  Returns what was removed.
+    """
+    _UNFINISHED_LOCK.acquire(timeout=timeout)
+    removed = []
+    for path in sorted(_UNFINISHED):
+        if path.is_dir() and not path.is_symlink():
+            shutil.rmtree(path, ignore_errors=True)
+        else:
+            with contextlib.suppress(OSError):
+                os.unlink(path)
+        removed.append(path)
+    _UNFINISHED.clear()
+    return removed
+
+
 #: signals that stop a folder build the way Ctrl-C (SIGINT) does: the temporary folder is removed
 CLEANUP_SIGNALS = ("SIGTERM", "SIGHUP")
 
@@ -411,28 +444,35 @@ def _atomic_directory(target: Path, overwrite: bool):
     parent = target.parent if str(target.parent) else Path(".")
     building = None
     try:
-        with _signals_held():
+        with _signals_held(), _UNFINISHED_LOCK:
             building = _make_parent(target)
+            _UNFINISHED.add(building)
             os.chmod(building, _default_mode(directory=True))
         yield building
     except BaseException:
         if building is not None:
             shutil.rmtree(building, ignore_errors=True)
+            _UNFINISHED.discard(building)
         raise
     old = None
     try:
-        with _signals_held():
+        with _signals_held(), _UNFINISHED_LOCK:
             try:
                 if os.path.lexists(target):
                     _check_replaceable(target, overwrite)   # may have appeared or changed while building
                     old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
                     os.replace(target, old / target.name)
                 os.replace(building, target)
+                _UNFINISHED.discard(building)
+                if old is not None:
+                    _UNFINISHED.add(old)       # the replaced report, deleted just below
             except BaseException:
                 shutil.rmtree(building, ignore_errors=True)
+                _UNFINISHED.discard(building)
                 if old is not None and not target.exists():
                     os.replace(old / target.name, target)
                 raise
     finally:
         if old is not None:
             shutil.rmtree(old, ignore_errors=True)
+            _UNFINISHED.discard(old)

@@ -17,6 +17,7 @@ import warnings
 from twoel._version import __version__
 from twoel.errors import TwoelError
 from twoel.cli.common import TwoelArgumentParser, one_line
+from twoel.cli.interrupt import run_interruptible
 
 #: modules of twoel.cli that define a command, in help order
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
@@ -47,7 +48,7 @@ def main(argv: list[str] | None = None) -> int:
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # warnings are carried in the results and printed there
-            return int(args.run(args) or 0)
+            return run_interruptible(lambda: int(args.run(args) or 0))
     except TwoelError as exc:
         sys.stderr.write(f"twoel: error: {one_line(exc)}\n")
         return 2
