@@ -28,6 +28,7 @@ from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_gene
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
 from twoel.basis.exponential_boxes import MIN_CHARGE
+from twoel.solver.memory import check_memory
 from twoel.solver.optimize import minimize_energy, virial_scale
 from twoel.solver.error_bar import digits_error, float64_energy, nested_error_bar, supported_digits
 from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
@@ -141,6 +142,8 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
         raise UnsupportedError(f"precision='extended' is not available for {state.label} with the "
                                f"{fam.name} family (it needs the exponential family and an S state)")
     params = _starting_parameters(fam, ion, state, size, options, parameters)
+    n_functions = fam.build(ion, state, size, {p.name: p.initial for p in params}, options).size
+    check_memory(n_functions, precision)      # before any matrix is built
     do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
     return _Plan(ion, state, fam, size, options, params, bool(do_optimize and params), precision,
                  digit_target, drop_threshold)
