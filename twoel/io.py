@@ -134,6 +134,10 @@ def _existing_mode(target: Path) -> int | None:
         return None
     except NotADirectoryError:
         raise InputError(f"cannot write {str(target)!r}: a part of the path is a file, not a folder") from None
+    except OSError as exc:          # e.g. a name longer than the file system allows
+        raise InputError(f"cannot write {shown_path(target)}: {exc.strerror or exc}") from None
+    except ValueError as exc:       # an embedded NUL byte
+        raise InputError(f"cannot write {shown_path(target)}: {exc}") from None
     kind = _kind(info.st_mode)
     if kind is not None:
         raise InputError(f"{str(target)!r} is {kind}, not a regular file; refusing to write there")
@@ -303,6 +307,12 @@ def _check_replaceable(target: Path, overwrite: bool) -> None:
     if not is_twoel_folder(target):
         raise InputError(f"{str(target)!r} is not a folder twoel wrote (no twoel provenance.json); "
                          "refusing to replace it")
+
+
+def check_replaceable(path, overwrite: bool = False) -> None:
+    """Raise :class:`InputError` now if :func:`atomic_directory` would refuse ``path`` (so a
+    caller can refuse before the work that fills the folder)."""
+    _check_replaceable(Path(path), overwrite)
 
 
 def _make_parent(target: Path) -> Path:

@@ -276,3 +276,47 @@ def test_below_the_critical_charge_the_search_stops_at_once():
     assert result.optimizer["method"] == "stopped early"
     assert result.optimizer["n_evaluations"] == HOPELESS_EVALUATIONS
     assert "critical charge" in result.optimizer["message"]
+
+
+# --- 6. found by a hostile-input campaign -----------------------------------------------------
+
+@pytest.mark.parametrize("argv, words", [
+    (("converge", "--Z", "2", "--largest", "1" + "0" * 399), ("--largest", "at most 100000")),
+    (("converge", "--Z", "2", "--count", "100000"), ("--count", "at most 50")),
+    (("converge", "--Z", "2", "--count", "2"), ("--count", "at least 3")),
+    (("converge", "--Z", "2", "--sizes", "1,2," + "9" * 400), ("--sizes", "at most 100000")),
+])
+def test_converge_bounds_its_numbers_on_the_text(run_cli, argv, words):
+    """--largest 10^399 and --count 100000 were internal errors (OverflowError)."""
+    code, _, err = run_cli(*argv)
+    assert code == 2 and err.count("\n") == 1 and "Traceback" not in err, err
+    for word in words:
+        assert word in err
+
+
+def test_an_output_name_too_long_for_the_system_is_one_line(run_cli, tmp_path):
+    code, _, err = run_cli("check", "--Z", "2", "--energy", "-2.9", "--unit", "Eh",
+                           "--out", str(tmp_path / ("x" * 300)))
+    one_line_refusal(code, err)
+    assert "File name too long" in err
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_no_command_is_one_line(run_cli):
+    code, out, err = run_cli()
+    one_line_refusal(code, err)
+    assert "give a command" in err and "energy" in err and out == ""
+
+
+def test_a_report_over_a_file_is_refused_before_solving(run_cli, tmp_path, monkeypatch):
+    from twoel.analysis import sweep
+
+    def refuse(*_args, **_kwargs):
+        raise AssertionError("solved before the output folder was checked")
+
+    monkeypatch.setattr(sweep, "solve_many", refuse)
+    plain = tmp_path / "existing.txt"
+    plain.write_text("keep")
+    code, _, err = run_cli("report", "--quiet", "--demo", "--out", str(plain), "--overwrite")
+    one_line_refusal(code, err)
+    assert "not a folder" in err and plain.read_text() == "keep"

@@ -42,8 +42,9 @@ def build_parser() -> TwoelArgumentParser:
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
-    if not hasattr(args, "run"):
-        parser.print_help(sys.stderr)
+    if not hasattr(args, "run"):      # one line, as every error (the help is 'twoel --help')
+        sys.stderr.write(f"twoel: error: give a command: {', '.join(COMMAND_MODULES)} "
+                         "(see 'twoel --help')\n")
         return 2
     try:
         with warnings.catch_warnings():

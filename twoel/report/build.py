@@ -753,10 +753,13 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     """
     from twoel.io import atomic_directory, atomic_write_text, dumps_json
 
+    from twoel.io import check_replaceable
+
     config = normalize_config(config)
     out = Path(out)
     if out.exists() and not overwrite:
         raise InputError(f"{str(out)!r} exists; refusing to overwrite it (use --overwrite)")
+    check_replaceable(out, overwrite)       # before any solve, not after minutes of work
     sections = report_tasks(config)
     check_tasks(sections)
     results, by_section = _solve_sections(sections, jobs, progress)
