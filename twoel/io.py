@@ -25,6 +25,7 @@ import shutil
 import signal
 import stat
 import tempfile
+import threading
 from pathlib import Path
 
 from twoel.errors import InputError
@@ -133,6 +134,10 @@ def _existing_mode(target: Path) -> int | None:
         return None
     except NotADirectoryError:
         raise InputError(f"cannot write {str(target)!r}: a part of the path is a file, not a folder") from None
+    except OSError as exc:          # e.g. a name longer than the file system allows
+        raise InputError(f"cannot write {shown_path(target)}: {exc.strerror or exc}") from None
+    except ValueError as exc:       # an embedded NUL byte
+        raise InputError(f"cannot write {shown_path(target)}: {exc}") from None
     kind = _kind(info.st_mode)
     if kind is not None:
         raise InputError(f"{str(target)!r} is {kind}, not a regular file; refusing to write there")
@@ -174,7 +179,9 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
     if not overwrite and (mode is not None or os.path.lexists(target)):
         raise InputError(f"{str(target)!r} exists; refusing to overwrite it")
     try:
-        fd, tmp_name = tempfile.mkstemp(prefix=f".{real.name}.", suffix=".tmp", dir=folder)
+        with _UNFINISHED_LOCK:
+            fd, tmp_name = tempfile.mkstemp(prefix=f".{real.name}.", suffix=".tmp", dir=folder)
+            _UNFINISHED.add(Path(tmp_name))
     except OSError as exc:
         raise InputError(f"cannot write {str(target)!r}: folder {str(folder)!r}: {exc.strerror}") from None
     try:
@@ -183,10 +190,13 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
             handle.flush()
             os.fsync(handle.fileno())
         os.chmod(tmp_name, _default_mode() if mode is None else mode)
-        os.replace(tmp_name, real)
+        with _UNFINISHED_LOCK:
+            os.replace(tmp_name, real)
+            _UNFINISHED.discard(Path(tmp_name))
     except BaseException:
         with contextlib.suppress(FileNotFoundError):
             os.unlink(tmp_name)
+        _UNFINISHED.discard(Path(tmp_name))
         raise
     return target
 
@@ -194,6 +204,63 @@ def atomic_write_bytes(path, data: bytes, *, overwrite: bool = True) -> Path:
 def atomic_write_text(path, text: str, *, encoding: str = "utf-8", overwrite: bool = True) -> Path:
     """Write ``text`` to ``path`` atomically (see :func:`atomic_write_bytes`)."""
     return atomic_write_bytes(path, text.encode(encoding), overwrite=overwrite)
+
+
+#: the largest input file (configuration, provenance, rows) read by default (bytes)
+MAX_INPUT_BYTES = 64 * 2**20
+
+
+def shown_path(path) -> str:
+    """``repr`` of a path for a one-line message (a very long name is cut)."""
+    text = os.fspath(path) if not isinstance(path, str) else path
+    text = text if isinstance(text, str) else os.fsdecode(text)
+    return repr(text if len(text) <= 160 else text[:80] + "..." + text[-40:])
+
+
+def read_input_bytes(path, what: str = "file", max_bytes: int = MAX_INPUT_BYTES) -> bytes:
+    """The bytes of a user-named input file, every failure one :class:`InputError` line.
+
+    Refused before reading: a missing path (``no such {what}``), one that is not a regular
+    file (a folder, a FIFO that would block, a device), a name the system cannot take (too
+    long, a NUL byte), and a file above ``max_bytes`` (:class:`~twoel.errors.ResourceError`).
+    """
+    from twoel.errors import ResourceError
+
+    target = Path(path)
+    shown = shown_path(path)
+    try:
+        info = os.stat(target)
+    except (FileNotFoundError, NotADirectoryError):
+        raise InputError(f"no such {what}: {shown}") from None
+    except OSError as exc:
+        raise InputError(f"cannot read {what} {shown}: {exc.strerror or exc}") from None
+    except ValueError as exc:                     # an embedded NUL byte
+        raise InputError(f"cannot read {what} {shown}: {exc}") from None
+    kind = _kind(info.st_mode)
+    if kind is not None:
+        kind = kind if kind.startswith("not ") else f"is {kind}, not a regular file"
+        raise InputError(f"{what} {shown} {kind}")
+    if info.st_size > max_bytes:
+        raise ResourceError(f"{what} {shown}: {info.st_size / 2**20:.1f} MiB exceeds the limit of "
+                            f"{max_bytes / 2**20:g} MiB")
+    try:
+        with target.open("rb") as handle:
+            raw = handle.read(max_bytes + 1)
+    except OSError as exc:
+        raise InputError(f"cannot read {what} {shown}: {exc.strerror or exc}") from None
+    if len(raw) > max_bytes:
+        raise ResourceError(f"{what} {shown} exceeds the limit of {max_bytes / 2**20:g} MiB")
+    return raw
+
+
+def read_input_text(path, what: str = "file", max_bytes: int = MAX_INPUT_BYTES) -> str:
+    """:func:`read_input_bytes` decoded as UTF-8 (a byte-order mark is dropped)."""
+    raw = read_input_bytes(path, what, max_bytes)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{what} {shown_path(path)}: not UTF-8 text (byte {exc.start}); "
+                         "save it as UTF-8") from None
 
 
 def _protected(folder: Path) -> str | None:
@@ -242,6 +309,12 @@ def _check_replaceable(target: Path, overwrite: bool) -> None:
                          "refusing to replace it")
 
 
+def check_replaceable(path, overwrite: bool = False) -> None:
+    """Raise :class:`InputError` now if :func:`atomic_directory` would refuse ``path`` (so a
+    caller can refuse before the work that fills the folder)."""
+    _check_replaceable(Path(path), overwrite)
+
+
 def _make_parent(target: Path) -> Path:
     parent = target.parent if str(target.parent) else Path(".")
     try:
@@ -252,6 +325,33 @@ def _make_parent(target: Path) -> Path:
                          "not a folder") from None
     except OSError as exc:
         raise InputError(f"cannot create {str(target)!r} in {str(parent)!r}: {exc.strerror}") from None
+
+
+#: temporary files and folders being written now (removed by :func:`remove_unfinished`)
+_UNFINISHED: set[Path] = set()
+#: held while a temporary is made or moved into place, and by :func:`remove_unfinished` for good
+_UNFINISHED_LOCK = threading.Lock()
+
+
+def remove_unfinished(timeout: float = 3.0) -> list[Path]:
+    """Delete every temporary file and folder twoel is writing now; for a process about to end.
+
+    Called by the command line when a signal stops a command whose body runs in a worker thread
+    (:mod:`twoel.cli.interrupt`).  The lock is taken and never given back, so the worker can
+    neither make a new temporary nor move one into place afterwards; the process must end right
+    after.  Returns what was removed.
+    """
+    _UNFINISHED_LOCK.acquire(timeout=timeout)
+    removed = []
+    for path in sorted(_UNFINISHED):
+        if path.is_dir() and not path.is_symlink():
+            shutil.rmtree(path, ignore_errors=True)
+        else:
+            with contextlib.suppress(OSError):
+                os.unlink(path)
+        removed.append(path)
+    _UNFINISHED.clear()
+    return removed
 
 
 #: signals that stop a folder build the way Ctrl-C (SIGINT) does: the temporary folder is removed
@@ -354,28 +454,35 @@ def _atomic_directory(target: Path, overwrite: bool):
     parent = target.parent if str(target.parent) else Path(".")
     building = None
     try:
-        with _signals_held():
+        with _signals_held(), _UNFINISHED_LOCK:
             building = _make_parent(target)
+            _UNFINISHED.add(building)
             os.chmod(building, _default_mode(directory=True))
         yield building
     except BaseException:
         if building is not None:
             shutil.rmtree(building, ignore_errors=True)
+            _UNFINISHED.discard(building)
         raise
     old = None
     try:
-        with _signals_held():
+        with _signals_held(), _UNFINISHED_LOCK:
             try:
                 if os.path.lexists(target):
                     _check_replaceable(target, overwrite)   # may have appeared or changed while building
                     old = Path(tempfile.mkdtemp(prefix=f".{target.name}.old.", dir=parent))
                     os.replace(target, old / target.name)
                 os.replace(building, target)
+                _UNFINISHED.discard(building)
+                if old is not None:
+                    _UNFINISHED.add(old)       # the replaced report, deleted just below
             except BaseException:
                 shutil.rmtree(building, ignore_errors=True)
+                _UNFINISHED.discard(building)
                 if old is not None and not target.exists():
                     os.replace(old / target.name, target)
                 raise
     finally:
         if old is not None:
             shutil.rmtree(old, ignore_errors=True)
+            _UNFINISHED.discard(old)

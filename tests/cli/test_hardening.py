@@ -212,3 +212,111 @@ def test_hf_default_sizes_at_z_118(run_cli):
     assert code == 0, err
     energy = json.loads(out)["energy_hartree"]
     assert energy + 118**2 - 5 * 118 / 8 == pytest.approx(-0.111003, abs=5e-5)
+
+
+# --- 5. regressions: negative numbers, huge powers, tiny charges ----------------------------
+
+@pytest.mark.parametrize("text", ["-1e300", "-2.9033D+00", "-.5e1", "-2.9033"])
+def test_a_negative_number_after_an_option_is_a_value(run_cli, text):
+    """``--energy -1e300`` was read by argparse as an unknown option."""
+    code, out, err = run_cli("check", "--Z", "2", "--energy", text, "--unit", "Eh", "--json")
+    assert code == 0, err
+    assert json.loads(out)["energy_text"] == text
+
+
+def test_a_negative_charge_is_refused_as_a_value(run_cli):
+    code, _, err = run_cli("energy", "--Z", "-inf")
+    one_line_refusal(code, err.replace("twoel energy: error:", "twoel: error:"))
+    assert "'Z'" in err and "-inf" in err
+
+
+@pytest.mark.parametrize("term", [(0, 0, 100), (100, 0, 0), (0, 0, 10**400), (0, 0, float("inf")),
+                                  (61, 0, 0)])
+def test_api_refuses_huge_hylleraas_powers_as_input_errors(term):
+    """Powers near 100 raised a raw OverflowError from the integrals' factorials."""
+    from twoel import solve
+
+    with pytest.raises(InputError, match="at most 60|non-negative integers"):
+        solve(2, family="hylleraas", options={"terms": [(0, 0, 0), term]})
+
+
+def test_the_cli_and_the_family_share_the_power_bound():
+    from twoel.basis import hylleraas
+    from twoel.cli import common
+
+    assert common.MAX_TERM_POWER == hylleraas.MAX_TERM_POWER
+
+
+@pytest.mark.parametrize("family", ["hylleraas", "exponential", "screened"])
+def test_one_small_charge_rule_for_every_family(run_cli, family):
+    """``energy --Z 1e-6 --family hylleraas`` ran for about 20 s before saying 'not bound'."""
+    import time
+
+    from twoel.basis.exponential_boxes import MIN_CHARGE
+
+    start = time.perf_counter()
+    code, out, err = run_cli("energy", "--Z", "1e-6", "--family", family)
+    one_line_refusal(code, err)
+    assert f"Z >= {MIN_CHARGE:g}" in err and out == ""
+    assert time.perf_counter() - start < 3.0               # refused before any basis is built
+
+
+def test_below_the_critical_charge_the_search_stops_at_once():
+    """No two-electron state is bound below Z_c = 0.911 028 2 (Estienne, Busuttil, Moini, Drake,
+    Phys. Rev. Lett. 112, 173001 (2014), from memory): the optimizer stops after a few steps."""
+    import warnings
+
+    from twoel import solve
+    from twoel.solver.pipeline import HOPELESS_EVALUATIONS
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        result = solve(0.01, family="hylleraas", size=2)
+    assert not result.bound
+    assert result.optimizer["method"] == "stopped early"
+    assert result.optimizer["n_evaluations"] == HOPELESS_EVALUATIONS
+    assert "critical charge" in result.optimizer["message"]
+
+
+# --- 6. found by a hostile-input campaign -----------------------------------------------------
+
+@pytest.mark.parametrize("argv, words", [
+    (("converge", "--Z", "2", "--largest", "1" + "0" * 399), ("--largest", "at most 100000")),
+    (("converge", "--Z", "2", "--count", "100000"), ("--count", "at most 50")),
+    (("converge", "--Z", "2", "--count", "2"), ("--count", "at least 3")),
+    (("converge", "--Z", "2", "--sizes", "1,2," + "9" * 400), ("--sizes", "at most 100000")),
+])
+def test_converge_bounds_its_numbers_on_the_text(run_cli, argv, words):
+    """--largest 10^399 and --count 100000 were internal errors (OverflowError)."""
+    code, _, err = run_cli(*argv)
+    assert code == 2 and err.count("\n") == 1 and "Traceback" not in err, err
+    for word in words:
+        assert word in err
+
+
+def test_an_output_name_too_long_for_the_system_is_one_line(run_cli, tmp_path):
+    code, _, err = run_cli("check", "--Z", "2", "--energy", "-2.9", "--unit", "Eh",
+                           "--out", str(tmp_path / ("x" * 300)))
+    one_line_refusal(code, err)
+    assert "File name too long" in err
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_no_command_is_one_line(run_cli):
+    code, out, err = run_cli()
+    one_line_refusal(code, err)
+    assert "give a command" in err and "energy" in err and out == ""
+
+
+def test_a_report_over_a_file_is_refused_before_solving(run_cli, tmp_path, monkeypatch):
+    from twoel.analysis import sweep
+
+    def refuse(*_args, **_kwargs):
+        raise AssertionError("solved before the output folder was checked")
+
+    monkeypatch.setattr(sweep, "solve_many", refuse)
+    plain = tmp_path / "existing.txt"
+    plain.write_text("keep")
+    code, _, err = run_cli("report", "--quiet", "--demo", "--out", str(plain), "--overwrite")
+    one_line_refusal(code, err)
+    assert "not a folder" in err and plain.read_text() == "keep"

@@ -42,14 +42,22 @@ def omega_terms(omega: int, one_exponent: bool, sign: int) -> list[tuple[int, in
     return terms
 
 
+#: the largest power of an explicit term: ω ≤ 16 is the family's range, and powers near 100
+#: overflow the double-precision factorials of the integrals (common practice: refuse long before)
+MAX_TERM_POWER = 60
+
+
 def _parse_terms(terms) -> list[tuple[int, int, int]]:
     try:
         parsed = [tuple(int(x) for x in term) for term in terms]
-    except (TypeError, ValueError):
+    except (TypeError, ValueError, OverflowError):
         raise InputError(f"'terms' must be a list of three non-negative integers each, got {terms!r}")
     for term, original in zip(parsed, terms):
         if len(term) != 3 or min(term) < 0 or any(int(x) != x for x in original):
             raise InputError(f"each term must be three non-negative integers, got {original!r}")
+        if max(term) > MAX_TERM_POWER:
+            raise InputError(f"each power of a term must be at most {MAX_TERM_POWER} (the integrals "
+                             f"overflow double precision near 100), got {str(original)[:80]}")
     if not parsed:
         raise InputError("'terms' must not be empty")
     if len(set(parsed)) != len(parsed):

@@ -97,13 +97,20 @@ class EnergyRows:
     blank_lines: int = 0
 
 
+#: the longest text of one problem in an error message (characters; a longer one is cut)
+MAX_PROBLEM_TEXT = 240
+
+
 class _Problems:
     def __init__(self, source: str):
         self.source = source
         self.items: list[str] = []
 
     def add(self, text: str) -> None:
-        self.items.append(text)
+        # one problem stays short even when it quotes a huge cell (the message is one line)
+        text = " ".join(text.split())
+        self.items.append(text if len(text) <= MAX_PROBLEM_TEXT
+                          else f"{text[:MAX_PROBLEM_TEXT - 80]} ... {text[-60:]}")
 
     def raise_if_any(self) -> None:
         if not self.items:
@@ -389,21 +396,10 @@ def parse_json_text(text: str, source: str = "<json>") -> EnergyRows:
 
 def read_rows(path) -> EnergyRows:
     """Read a CSV or JSON file of energies (format from the suffix, else from the content)."""
+    from twoel.io import read_input_bytes
+
     path = Path(path)
-    if not path.is_file():
-        kind = "not a regular file" if path.exists() else "no such file"
-        raise InputError(f"{kind}: {str(path)!r}")
-    try:
-        size = path.stat().st_size
-        if size > MAX_BYTES:
-            raise ResourceError(f"{path.name}: file of {size / 2**20:.1f} MiB exceeds the limit of "
-                                f"{MAX_BYTES // 2**20} MiB; split it")
-        with path.open("rb") as handle:
-            raw = handle.read(MAX_BYTES + 1)
-    except OSError as exc:
-        raise InputError(f"cannot read {str(path)!r}: {exc.strerror or exc}") from None
-    if len(raw) > MAX_BYTES:
-        raise ResourceError(f"{path.name}: file exceeds the limit of {MAX_BYTES // 2**20} MiB; split it")
+    raw = read_input_bytes(path, "file", MAX_BYTES)
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:

@@ -16,7 +16,8 @@ import warnings
 
 from twoel._version import __version__
 from twoel.errors import TwoelError
-from twoel.cli.common import TwoelArgumentParser
+from twoel.cli.common import TwoelArgumentParser, one_line
+from twoel.cli.interrupt import run_interruptible
 
 #: modules of twoel.cli that define a command, in help order
 COMMAND_MODULES = ("energy", "series", "converge", "transition", "properties", "spectrum", "hf",
@@ -41,15 +42,16 @@ def build_parser() -> TwoelArgumentParser:
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
-    if not hasattr(args, "run"):
-        parser.print_help(sys.stderr)
+    if not hasattr(args, "run"):      # one line, as every error (the help is 'twoel --help')
+        sys.stderr.write(f"twoel: error: give a command: {', '.join(COMMAND_MODULES)} "
+                         "(see 'twoel --help')\n")
         return 2
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # warnings are carried in the results and printed there
-            return int(args.run(args) or 0)
+            return run_interruptible(lambda: int(args.run(args) or 0))
     except TwoelError as exc:
-        sys.stderr.write(f"twoel: error: {exc}\n")
+        sys.stderr.write(f"twoel: error: {one_line(exc)}\n")
         return 2
     except KeyboardInterrupt:
         sys.stderr.write("twoel: interrupted\n")
@@ -59,7 +61,7 @@ def main(argv: list[str] | None = None) -> int:
     except Exception as exc:  # pragma: no cover - last line of defence
         if args.debug:
             raise
-        sys.stderr.write(f"twoel: internal error: {type(exc).__name__}: {exc} "
+        sys.stderr.write(f"twoel: internal error: {type(exc).__name__}: {one_line(exc)} "
                          "(rerun with --debug for a traceback and please report it)\n")
         return 3
 

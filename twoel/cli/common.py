@@ -4,17 +4,41 @@ from __future__ import annotations
 
 import argparse
 import math
+import re
 import sys
 
 from twoel.errors import InputError
 from twoel.io import dumps_json  # noqa: F401  (re-exported: the CLI's JSON encoder lives in twoel.io)
 
 
+#: the longest error message printed (characters); a longer one keeps its start and end
+MAX_MESSAGE = 1000
+
+
+def one_line(message) -> str:
+    """``message`` as one line of at most :data:`MAX_MESSAGE` characters (line breaks become
+    spaces; the middle of a longer text, e.g. a quoted huge value, is cut)."""
+    text = " ".join(str(message).split())
+    if len(text) > MAX_MESSAGE:
+        text = f"{text[:MAX_MESSAGE - 220]} ... ({len(text)} characters) ... {text[-160:]}"
+    return text
+
+
+#: what argparse reads as a negative number (a value) rather than an option
+NEGATIVE_NUMBER = re.compile(r"^-(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$|^-(inf|infinity|nan)$", re.IGNORECASE)
+
+
 class TwoelArgumentParser(argparse.ArgumentParser):
     """An argument parser whose errors are one line on stderr and exit status 2."""
 
+    def __init__(self, *args, **kwargs):
+        super().__init__(*args, **kwargs)
+        # a negative number in any notation is a value, not an option: ``--energy -1e300``,
+        # ``--energy -2.9033D+00``, ``--Z -inf`` (argparse alone knows only -12 and -1.5)
+        self._negative_number_matcher = NEGATIVE_NUMBER
+
     def error(self, message: str):  # noqa: D401 - argparse API
-        self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+        self.exit(2, f"{self.prog}: error: {one_line(message)} (see '{self.prog} --help')\n")
 
 
 #: the largest integer any integer option accepts (far beyond any sensible size, count or job number)
@@ -25,8 +49,9 @@ MAX_SIZE_COUNT = 1000
 MAX_LIST_SIZE = 100_000
 #: the most explicit terms ``--terms`` accepts (the correlated basis holds at most 6000 primitives)
 MAX_TERM_COUNT = 6000
-#: the largest power in ``--terms``: ω ≤ 16 is the family's range, and powers near 100 overflow
-#: the double-precision factorials of the integrals (common practice: refuse long before)
+#: the largest power in ``--terms``: the family's own rule (:data:`twoel.basis.hylleraas.MAX_TERM_POWER`),
+#: repeated here so that the parser checks it without loading the numerical core (a test keeps
+#: the two equal)
 MAX_TERM_POWER = 60
 
 

@@ -6,7 +6,8 @@ import argparse
 import math
 import sys
 
-from twoel.cli.common import COMPACT_NOTE, add_charge_argument, add_full_argument, print_json
+from twoel.cli.common import (COMPACT_NOTE, MAX_LIST_SIZE, MAX_SIZE_COUNT, _bounded_int, add_charge_argument,
+                              add_full_argument, print_json)
 
 NAME = "converge"
 HELP = "convergence of the energy with the basis size: differences, ratios, extrapolation, error bar"
@@ -16,8 +17,27 @@ def size_list(text: str) -> list[int]:
     """Parse ``"100,200,400"`` (no evaluation)."""
     parts = [p.strip() for p in text.split(",") if p.strip()]
     if len(parts) < 3 or not all(p.isdigit() for p in parts):
-        raise argparse.ArgumentTypeError(f"expected at least three comma-separated sizes, got {text!r}")
-    return [int(p) for p in parts]
+        raise argparse.ArgumentTypeError(f"expected at least three comma-separated sizes, got {text[:60]!r}")
+    if len(parts) > MAX_SIZE_COUNT:
+        raise argparse.ArgumentTypeError(f"at most {MAX_SIZE_COUNT} sizes, got {len(parts)}")
+    return [_bounded_int(p, MAX_LIST_SIZE, "each size") for p in parts]
+
+
+#: the most sizes ``--count`` asks for (each a full solve; beyond a few tens they repeat)
+MAX_COUNT = 50
+
+
+def largest_size(text: str) -> int:
+    """``--largest``: a size of at most :data:`twoel.cli.common.MAX_LIST_SIZE` (checked on the text)."""
+    return _bounded_int(text, MAX_LIST_SIZE, "--largest")
+
+
+def size_count(text: str) -> int:
+    """``--count``: 3 to :data:`MAX_COUNT` sizes (checked on the text)."""
+    count = _bounded_int(text, MAX_COUNT, "--count")
+    if count < 3:
+        raise argparse.ArgumentTypeError(f"--count must be at least 3, got {count}")
+    return count
 
 
 def add_parser(subparsers) -> None:
@@ -28,9 +48,10 @@ def add_parser(subparsers) -> None:
     group = p.add_mutually_exclusive_group()
     group.add_argument("--sizes", type=size_list, default=None,
                        help="comma-separated increasing basis sizes, e.g. 100,141,200,283,400")
-    group.add_argument("--largest", type=int, default=400,
+    group.add_argument("--largest", type=largest_size, default=400,
                        help="largest size; the others follow by factors of √2 (default 400)")
-    p.add_argument("--count", type=int, default=5, help="number of sizes with --largest (default 5)")
+    p.add_argument("--count", type=size_count, default=5,
+                   help=f"number of sizes with --largest (default 5, at most {MAX_COUNT})")
     p.add_argument("--precision", choices=("float64", "extended"), default="float64",
                    help="arithmetic (see 'twoel energy --help')")
     p.add_argument("--digits", type=int, default=None, help="with --precision extended: digit target")

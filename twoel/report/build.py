@@ -211,18 +211,20 @@ def normalize_config(config: dict) -> dict:
 
 def load_config(path) -> dict:
     """Read a report configuration from a JSON or TOML file (never evaluated)."""
+    from twoel.io import read_input_text, shown_path
+
     path = Path(path)
-    if not path.is_file():
-        raise InputError(f"configuration file {str(path)!r} not found")
-    text = path.read_text(encoding="utf-8")
+    text = read_input_text(path, "configuration file")
     try:
         if path.suffix.lower() == ".toml":
             import tomllib
 
             return tomllib.loads(text)
         return json.loads(text)
-    except (ValueError, TypeError) as exc:
-        raise InputError(f"{str(path)!r} is not valid {'TOML' if path.suffix.lower() == '.toml' else 'JSON'}: {exc}")
+    except (ValueError, TypeError, RecursionError) as exc:
+        what = "TOML" if path.suffix.lower() == ".toml" else "JSON"
+        detail = "nested too deeply" if isinstance(exc, RecursionError) else str(exc).splitlines()[0][:200]
+        raise InputError(f"{shown_path(path)} is not valid {what}: {detail}") from None
 
 
 # --------------------------------------------------------------------------- computation
@@ -751,10 +753,13 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
     """
     from twoel.io import atomic_directory, atomic_write_text, dumps_json
 
+    from twoel.io import check_replaceable
+
     config = normalize_config(config)
     out = Path(out)
     if out.exists() and not overwrite:
         raise InputError(f"{str(out)!r} exists; refusing to overwrite it (use --overwrite)")
+    check_replaceable(out, overwrite)       # before any solve, not after minutes of work
     sections = report_tasks(config)
     check_tasks(sections)
     results, by_section = _solve_sections(sections, jobs, progress)
@@ -789,13 +794,16 @@ def build_report(config: dict, out, *, overwrite: bool = False, html: bool = Fal
 
 def read_provenance(path) -> dict:
     """Load and check a report provenance file."""
+    from twoel.io import read_input_text, shown_path
+
     path = Path(path)
-    if not path.is_file():
-        raise InputError(f"provenance file {str(path)!r} not found")
     try:
-        data = json.loads(path.read_text(encoding="utf-8"))
-    except ValueError as exc:
-        raise InputError(f"{str(path)!r} is not valid JSON: {exc}")
+        data = json.loads(read_input_text(path, "provenance file"))
+    except (ValueError, RecursionError) as exc:
+        if isinstance(exc, InputError):
+            raise
+        detail = "nested too deeply" if isinstance(exc, RecursionError) else str(exc)[:200]
+        raise InputError(f"{shown_path(path)} is not valid JSON: {detail}") from None
     if not isinstance(data, dict) or data.get("format") != PROVENANCE_FORMAT:
         raise InputError(f"{str(path)!r} is not a twoel report provenance file")
     if data.get("format_version") != PROVENANCE_VERSION:

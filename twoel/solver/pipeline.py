@@ -27,6 +27,8 @@ from twoel.basis.base import Parameter, TrialFamily
 from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
+from twoel.basis.exponential_boxes import MIN_CHARGE
+from twoel.solver.memory import check_memory
 from twoel.solver.optimize import minimize_energy, virial_scale
 from twoel.solver.error_bar import digits_error, float64_energy, nested_error_bar, supported_digits
 from twoel.solver.refine import (check_precision, extended_refine, mixed_refine,
@@ -123,6 +125,10 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
     state = State.parse(state)
     given_size = size
     fam, size = choose_family(state, family, size, ion)
+    if not ion.Z >= MIN_CHARGE:  # one small-charge rule for every family (that of the box edges)
+        raise InputError(f"the {fam.name} family needs Z >= {MIN_CHARGE:g} (below it the bases' "
+                         f"exponents, which scale with Z, reach their floor; no two-electron state "
+                         f"is bound below Z_c = {CRITICAL_CHARGE} anyway), got Z = {ion.Z:g}")
     digit_target = check_precision(precision, digits)
     if digits is not None:
         size = _size_for_digits(fam, ion, state, digit_target, given_size, size)
@@ -136,6 +142,8 @@ def _validate(Z, state, family, size, parameters, optimize, options, precision, 
         raise UnsupportedError(f"precision='extended' is not available for {state.label} with the "
                                f"{fam.name} family (it needs the exponential family and an S state)")
     params = _starting_parameters(fam, ion, state, size, options, parameters)
+    n_functions = fam.build(ion, state, size, {p.name: p.initial for p in params}, options).size
+    check_memory(n_functions, precision)      # before any matrix is built
     do_optimize = (fam.optimize_by_default and parameters is None) if optimize is None else bool(optimize)
     return _Plan(ion, state, fam, size, options, params, bool(do_optimize and params), precision,
                  digit_target, drop_threshold)
@@ -197,7 +205,7 @@ def _optimize(plan: _Plan, progress) -> tuple[dict, dict | None]:
     if not plan.do_optimize:
         return values, None
     tune_size = plan.fam.tuning_size(plan.ion, plan.state, plan.size)
-    watch = _BindingWatch(plan.ion.threshold_hartree)
+    watch = _BindingWatch(plan.ion.threshold_hartree, hopeless=plan.ion.Z < NEVER_BOUND_BELOW)
 
     def energy(v):
         value = plan.evaluate(v, tune_size)[2].values[plan.state.root]
@@ -207,11 +215,14 @@ def _optimize(plan: _Plan, progress) -> tuple[dict, dict | None]:
     try:
         values, _best, opt = minimize_energy(energy, plan.params, progress=progress)
     except _StaysUnbound:
+        why = "this basis does not bind the state" + (
+            f": Z = {plan.ion.Z:g} lies below the critical charge {CRITICAL_CHARGE} under which no "
+            "two-electron state is bound" if watch.hopeless else "")
         return dict(watch.best_values), {
             "method": "stopped early", "n_evaluations": watch.count, "success": False,
             "message": (f"stopped after {watch.count} evaluations: the energy stayed above the "
                         f"one-electron threshold {plan.ion.threshold_hartree:g} Eh without approaching it "
-                        "(this basis does not bind the state)"),
+                        f"({why})"),
             "initial": {p.name: p.initial for p in plan.params}, "size": tune_size}
     record = {"method": opt.method, "n_evaluations": opt.n_evaluations, "success": opt.success,
               "message": opt.message, "initial": opt.initial, "size": tune_size}
@@ -226,10 +237,12 @@ class _BindingWatch:
     """Stops an optimization whose energy stays above the threshold ``-Z²/2``: after
     :data:`UNBOUND_PATIENCE` evaluations, if the best energy is still above it and the last
     :data:`UNBOUND_PATIENCE` evaluations did not close half of its distance to it (a flat
-    surface: below the critical charge the energy only creeps towards the threshold)."""
+    surface: below the critical charge the energy only creeps towards the threshold).
+    ``hopeless`` (a charge below :data:`NEVER_BOUND_BELOW`, where no state can be bound): stop
+    after :data:`HOPELESS_EVALUATIONS` evaluations above the threshold."""
 
-    def __init__(self, threshold: float):
-        self.threshold, self.count = threshold, 0
+    def __init__(self, threshold: float, hopeless: bool = False):
+        self.threshold, self.count, self.hopeless = threshold, 0, bool(hopeless)
         self.best, self.best_values, self.history = float("inf"), {}, []
 
     def see(self, values: dict, energy: float) -> None:
@@ -237,6 +250,8 @@ class _BindingWatch:
         if energy < self.best:
             self.best, self.best_values = energy, dict(values)
         self.history.append(self.best)
+        if self.hopeless and self.count >= HOPELESS_EVALUATIONS and not self.best < self.threshold:
+            raise _StaysUnbound
         if self.count < 2 * UNBOUND_PATIENCE or self.best < self.threshold:
             return
         earlier = self.history[-UNBOUND_PATIENCE - 1]
@@ -246,6 +261,14 @@ class _BindingWatch:
 
 #: evaluations between the checks of :class:`_BindingWatch`
 UNBOUND_PATIENCE = 60
+#: the critical nuclear charge of two-electron ions, below which not even 1^1S is bound:
+#: Z_c = 0.911 028 2 (Estienne, Busuttil, Moini, Drake, Phys. Rev. Lett. 112, 173001 (2014),
+#: from memory)
+CRITICAL_CHARGE = 0.9110282
+#: below this charge (Z_c less a margin) an optimization that has not bound the state is hopeless
+NEVER_BOUND_BELOW = 0.9
+#: evaluations an optimization below :data:`NEVER_BOUND_BELOW` gets before it is stopped
+HOPELESS_EVALUATIONS = 5
 
 
 def _solve_at(plan: _Plan, values: dict) -> _Solved:
