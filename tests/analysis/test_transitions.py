@@ -67,7 +67,7 @@ def test_h_minus_has_no_bound_triplet_S():
 
 def test_states_the_basis_cannot_represent():
     with pytest.raises(UnsupportedError):
-        solve_state(2, "3^1D", size=60)
+        solve_state(2, "5^1G", size=60)
 
 
 def test_transition_2_3S_2_3P_small_basis():
