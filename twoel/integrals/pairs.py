@@ -1,8 +1,9 @@
-r"""The one evaluator of correlated pair integrals and operator matrices (S and P bases).
+r"""The one evaluator of correlated pair integrals and operator matrices (any L <= 3).
 
 Every matrix of the package between correlated primitives
 ``χ = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` (S, :class:`twoel.basis.correlated.CorrelatedBasis`)
-or ``z1 χ`` (P, :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
+or ``(ε·r1)^l (ε·r2)^(L-l) χ`` (:class:`twoel.basis.angular.AngularBasis`, ``P`` the ``L = 1``
+case :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
 
 .. math:: I(a, b, c; \alpha, \beta, \gamma) = \int\!\!\int r_1^a r_2^b r_{12}^c
           e^{-\alpha r_1 - \beta r_2 - \gamma r_{12}}\, d^3r_1\, d^3r_2
@@ -38,7 +39,9 @@ derivations of :mod:`twoel.integrals.symbolic` and :mod:`twoel.integrals.symboli
 (generated ``generated/kinetic_terms.py`` and ``generated/state_terms.py``).  Basis functions are
 ``(1 ± P12)`` applied to the primitives (times the contraction, if any); as in
 :mod:`twoel.basis.correlated` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
-is dropped.
+is dropped.  A basis of ``L >= 1`` carries the channel ``l`` of every primitive
+(``electron1_l``); each pair takes the term list of its bra and ket channels (the exchanged ket
+has ``L - l``), selected by masks when a block holds several channel pairs.
 """
 
 from __future__ import annotations

@@ -1,4 +1,4 @@
-r"""SymPy derivations of the gradient and angular integrands for S and P correlated bases.
+r"""SymPy derivations of the gradient and angular integrands of correlated bases of any L.
 
 Primitives are ``χ = w · g`` with the scalar part
 
@@ -25,6 +25,22 @@ Gradients and Laplacians
     (the same derivation as the kinetic terms); the angular prefactor adds
     ``∇n (z_e g) = δ_ne ẑ g + z_e ∇n g`` and ``∇n²(z_e g) = z_e ∇n² g + 2 δ_ne ∂g/∂z_n``.
     The Laplacian forms are used only to check the symmetric gradient forms (see the tests).
+
+General natural-parity L (what is generated; the z-form functions above stay as the
+independent check of its L = 1 case)
+    Primitives ``χ = (ε·r1)^l1 (ε·r2)^l2 g`` with ``l1 + l2 = L`` and the complex null vector
+    ``ε = (x̂ + iŷ)/√2`` (``ε·ε = 0``, ``ε*·ε = 1``): ``(ε·r)^l ∝ r^l Y_ll(r̂)``, so χ is the
+    ``M = L`` member of the stretched (unique) coupling ``[Y_l1 ⊗ Y_l2]^L``; scalar operators
+    have the same matrix elements in every ``M``.  Every integrand is a sum of scalar functions
+    times ``∏_{i≤K} (ε*·u_i) ∏_{j≤K} (ε·v_j)``, ``u, v ∈ span{r1, r2}``.  ``ε^{⊗K}`` is a unit
+    vector of the rank-``K`` symmetric traceless (irreducible) space, so by Schur's lemma its
+    average over orientations is ``⟨U|Π_K|V⟩/(2K+1)`` (:func:`orientation_average`,
+    :func:`traceless_form`: the polarization of ``K!/(2K-1)!! |u|^K |v|^K P_K(û·v̂)``), a
+    polynomial in the scalar products.  ``K = L`` for products of the angular factors, ``K = L-1``
+    where a bra gradient ``ε*`` meets a ket gradient ``ε`` (``∇n (ε·r_n)^l = l (ε·r_n)^(l-1) ε``);
+    ``(ε·r)^l`` is harmonic, so ``∇n² χ = (ε-product) ∇n² g + 2 l_n (ε·r_n)^(l_n-1) (ε·∇n g)``.
+    ``K = 1`` is the ``u·v/3`` above and ``K = 0`` the S case, so the L = 0, 1 lists are the S
+    and P lists term for term.
 
 :func:`generated_source` renders all term lists as Python; ``generated/state_terms.py`` is its
 output.
