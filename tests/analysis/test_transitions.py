@@ -112,7 +112,7 @@ def test_transition_cli_text_gives_the_wavelength_and_its_caution(capsys):
 
 @pytest.mark.parametrize("argv, message", [
     (["--from", "2^3X", "--to", "2^3P"], "unknown"),
-    (["--from", "2^3S", "--to", "3^3D"], "represents only"),
+    (["--from", "2^3S", "--to", "5^3G"], "represents only"),
     (["--from", "2^3S", "--to", "2^3S"], "same state"),
 ])
 def test_transition_cli_errors(capsys, argv, message):
