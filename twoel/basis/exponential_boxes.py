@@ -240,11 +240,12 @@ def generic_boxes(ion: Ion, state: State) -> BoxSet:
         # momentum on the inner electron (l1 = L - 1, an outer-inner and a symmetric box) and
         # the exchange image with the inner exponent on the α electron (l1 = 0)
         o = max(Z - 1.0, 0.1) / state.n
-        boxes = (Box((0.5 * o, 2.4 * o), (0.65 * Z, 1.13 * Z), (0.0, 0.08 * o), 0.3),
-                 Box((0.3 * o, 5.4 * o), (0.7 * Z, 1.3 * Z), (0.0, 1.3 * o), 0.32),
-                 Box((0.3 * o, 5.1 * o), (0.77 * Z, 1.06 * Z), (0.0, 0.8 * o), 0.19, l1=state.L - 1),
-                 Box((0.15 * Z, 1.5 * Z), (0.15 * Z, 1.5 * Z), (0.0, 0.5 * Z), 0.15, l1=state.L - 1),
-                 Box((0.15 * o, 4.6 * o), (0.5 * Z, 2.0 * Z), (0.0, 0.5 * Z), 0.15, l1=0))
+        boxes = (Box((0.5 * o, 2.4 * o), (0.65 * Z, 1.13 * Z), (0.0, 0.08 * o), 0.27027),
+                 Box((0.3 * o, 5.4 * o), (0.7 * Z, 1.3 * Z), (0.0, 1.3 * o), 0.288288),
+                 Box((0.3 * o, 5.1 * o), (0.77 * Z, 1.06 * Z), (0.0, 0.8 * o), 0.171171, l1=state.L - 1),
+                 Box((0.15 * Z, 1.5 * Z), (0.15 * Z, 1.5 * Z), (0.0, 0.5 * Z), 0.135135,
+                     l1=state.L - 1),
+                 Box((0.15 * o, 4.6 * o), (0.5 * Z, 2.0 * Z), (0.0, 0.5 * Z), 0.135135, l1=0))
     return BoxSet(Z, state.label, boxes, None, None, "generic guess scaled with Z (not optimized)",
                   "", "generic")
 
