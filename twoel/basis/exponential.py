@@ -140,10 +140,11 @@ def _dealt_counts(fractions: tuple, starts: tuple, size: int) -> tuple:
 
 
 def basis_from_boxes(boxes, state: State, size: int):
-    """The S (ground or excited) or P exponential basis of ``size`` terms drawn from ``boxes``.
+    """The S (ground or excited), P, D or F exponential basis of ``size`` terms from ``boxes``.
 
     S: a zero-power :class:`CorrelatedBasis` (closed-form matrices, triplets guarded as in the
-    module text).  P: a :class:`PBasis` (pair-evaluator matrices).
+    module text).  P: a :class:`PBasis`; D, F: an :class:`AngularBasis` (pair-evaluator
+    matrices).
     """
     if state.L == 0:
         exponents = box_exponents(boxes, size, state.exchange_sign)
@@ -189,8 +190,8 @@ class ExponentialFamily(TrialFamily):
     optimize_by_default = False
     option_names = ()
     supported_L = (0, 1, 2, 3)
-    #: S states: float64 with mixed refinement or extended precision, and an error bar; P
-    #: states: float64.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
+    #: S states: float64 with mixed refinement or extended precision, and an error bar; P, D
+    #: and F states: float64 with the error bar.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
     #: ``--optimize`` tunes S boxes at the stored set's size (else 120), at most 400 (the float64
     #: energy it minimizes stops seeing the basis near 1e-10 Eh, and each evaluation is O(N³))
     support = Support(L_values=(0, 1, 2, 3), precision={0: ("float64", "mixed", "extended")},
