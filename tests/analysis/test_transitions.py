@@ -67,7 +67,7 @@ def test_h_minus_has_no_bound_triplet_S():
 
 def test_states_the_basis_cannot_represent():
     with pytest.raises(UnsupportedError):
-        solve_state(2, "3^1D", size=60)
+        solve_state(2, "5^1G", size=60)
 
 
 def test_transition_2_3S_2_3P_small_basis():
@@ -112,7 +112,7 @@ def test_transition_cli_text_gives_the_wavelength_and_its_caution(capsys):
 
 @pytest.mark.parametrize("argv, message", [
     (["--from", "2^3X", "--to", "2^3P"], "unknown"),
-    (["--from", "2^3S", "--to", "3^3D"], "represents only"),
+    (["--from", "2^3S", "--to", "5^3G"], "represents only"),
     (["--from", "2^3S", "--to", "2^3S"], "same state"),
 ])
 def test_transition_cli_errors(capsys, argv, message):

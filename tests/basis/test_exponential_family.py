@@ -92,17 +92,17 @@ def test_family_basis_contract():
     basis = fam.build(ion, state, 50, {p.name: p.initial for p in params}, {})
     assert isinstance(basis, CorrelatedBasis)
     assert basis.sign == -1 and not np.any(basis.powers) and basis.size == 50
-    assert fam.supported_L == (0, 1)
+    assert fam.supported_L == (0, 1, 2, 3)
 
 
 def test_family_declares_what_it_supports():
-    """The solver reads the declaration: S states refine, P states stay in float64, and D
-    states are refused."""
+    """The solver reads the declaration: S states refine, P states stay in float64, and G
+    states (L = 4, beyond the generated term lists) are refused."""
     fam = get_family("exponential")
     s, p = State.parse("1^1S"), State.parse("2^1P")
     assert "extended" in fam.precision_paths(s) and "extended" not in fam.precision_paths(p)
     with pytest.raises(UnsupportedError):
-        fam.check_state(State.parse("3^1D"))
+        fam.check_state(State.parse("5^1G"))
 
 
 @pytest.mark.parametrize("state, exact", [

@@ -108,7 +108,7 @@ def test_p_basis_validation():
     with pytest.raises(InputError):
         PBasis([[0.5, 1.0, 0.0]], sign=2)
     with pytest.raises(UnsupportedError):
-        get_family("exponential").check_state(State.parse("3^1D"))
+        get_family("exponential").check_state(State.parse("5^1G"))
 
 
 @pytest.mark.parametrize("label, reference, tolerance", [("2^3P", HE_2_3P, 1e-7), ("2^1P", HE_2_1P, 1e-7)])

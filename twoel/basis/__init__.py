@@ -5,8 +5,9 @@
 ``screened``     1s² product with a variational effective charge (optimum ``Z - 5/16``)
 ``open-shell``   two-exponent symmetrized product (Eckart 1930; Chandrasekhar 1944)
 ``hylleraas``    ``r1^i r2^j r12^k exp(-α r1 - β r2)`` with ``i + j + k <= ω`` (Hylleraas 1929)
-``exponential``  ``(1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12)`` (S) and ``z1 exp(...)`` (P),
-                 quasi-random exponents in boxes (Korobov 2000)
+``exponential``  ``(1 ± P12) exp(-α_i r1 - β_i r2 - γ_i r12)`` (S), ``z1 exp(...)`` (P) and
+                 ``(ε·r1)^l (ε·r2)^(L-l) exp(...)`` (D, F), quasi-random exponents in boxes
+                 (Korobov 2000)
 ===============  ==============================================================================
 
 Families are listed by module in :data:`FAMILY_MODULES`; each module defines ``FAMILY``, whose
@@ -57,7 +58,7 @@ def get_family(name: str | TrialFamily) -> TrialFamily:
 def family_for(state: State) -> TrialFamily:
     """The most capable registered family that covers ``state``, judged on what the families
     declare: first one that states an error bar for the state, then the most precision paths,
-    then :data:`FAMILY_MODULES` order (``exponential`` for S and P states today)."""
+    then :data:`FAMILY_MODULES` order (``exponential`` for S, P, D and F states today)."""
     families = _registry()
     covering = [family for family in families.values() if family.supports().covers(state)]
     if not covering:

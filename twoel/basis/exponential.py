@@ -23,12 +23,15 @@ P states (``L = 1``, odd parity, ``n¹P`` and ``n³P``): functions
 ``z1 e^{-α_i r1 - β_i r2 - γ_i r12} ± (1 <-> 2)`` (:class:`twoel.basis.p_basis.PBasis`, ``α`` of
 the ``p`` electron) with exponents from the same boxes and sequence, no triplet guard.  Excited
 S states are the ``n``-th root of the S block (Hylleraas–Undheim–MacDonald), the ``n``-th P
-root is ``state.root = n - 2``.  The boxes of every state come from
+root is ``state.root = n - 2``.  ``L = 2, 3`` (D, F; ``n^(2S+1)L`` is root ``n - L - 1``):
+functions ``(ε·r1)^l1 (ε·r2)^(L-l1) e^{-α_i r1 - β_i r2 - γ_i r12} ± (1 <-> 2)``
+(:class:`twoel.basis.angular.AngularBasis`), ``l1`` given per box (default ``L``).  The boxes of every state come from
 :func:`twoel.basis.exponential_boxes.box_set_for` (one loader, one fallback rule).
 """
 
 from __future__ import annotations
 
+from dataclasses import replace
 from functools import lru_cache
 from math import isqrt
 
@@ -40,6 +43,7 @@ from twoel.system import Ion, State
 from twoel.basis.base import Parameter, Support, TrialFamily
 from twoel.basis import exponential_boxes as stored
 from twoel.basis.p_basis import PBasis
+from twoel.basis.angular import MAX_L, AngularBasis
 
 #: primes whose square roots drive the quasi-random sequences of α, β, γ (Korobov 2000)
 PRIMES = (2, 3, 5)
@@ -136,10 +140,11 @@ def _dealt_counts(fractions: tuple, starts: tuple, size: int) -> tuple:
 
 
 def basis_from_boxes(boxes, state: State, size: int):
-    """The S (ground or excited) or P exponential basis of ``size`` terms drawn from ``boxes``.
+    """The S (ground or excited), P, D or F exponential basis of ``size`` terms from ``boxes``.
 
     S: a zero-power :class:`CorrelatedBasis` (closed-form matrices, triplets guarded as in the
-    module text).  P: a :class:`PBasis` (pair-evaluator matrices).
+    module text).  P: a :class:`PBasis`; D, F: an :class:`AngularBasis` (pair-evaluator
+    matrices).
     """
     if state.L == 0:
         exponents = box_exponents(boxes, size, state.exchange_sign)
@@ -147,7 +152,30 @@ def basis_from_boxes(boxes, state: State, size: int):
                                sign=state.exchange_sign)
     if state.L == 1:
         return PBasis(box_exponents(boxes, size, 1), sign=state.exchange_sign)
+    if 2 <= state.L <= MAX_L:
+        return _angular_basis(boxes, state, size)
     raise UnsupportedError(f"no exponential basis for L = {state.L} ({state.label})")
+
+
+def _angular_basis(boxes, state: State, size: int) -> AngularBasis:
+    """``L >= 2``: each box's terms carry ``(ε·r1)^l1 (ε·r2)^(L-l1)`` with the box's ``l1``
+    (default ``L``: all of it on the electron of ``α``).  Counts as for S and P
+    (:func:`box_counts`); each box draws its own sequence, so bases stay nested.  In a
+    channel with ``l1 = L - l1`` the triplet function vanishes at ``α = β``: there the
+    triplet guard applies."""
+    counts = box_counts([b.fraction for b in boxes], size, [b.from_size for b in boxes])
+    rows, channel = [], []
+    for box, count in zip(boxes, counts):
+        if count == 0:
+            continue
+        l1 = state.L if box.l1 is None else box.l1
+        if not 0 <= l1 <= state.L:
+            raise InputError(f"box l1 = {l1} does not fit L = {state.L}")
+        guard = state.exchange_sign if 2 * l1 == state.L else 1
+        rows.append(box_exponents([replace(box, fraction=1.0, from_size=0)], count, guard))
+        channel += [l1] * count
+    return AngularBasis(np.concatenate(rows), sign=state.exchange_sign, angular_momentum=state.L,
+                        electron1_l=np.array(channel))
 
 
 class ExponentialFamily(TrialFamily):
@@ -161,13 +189,14 @@ class ExponentialFamily(TrialFamily):
     max_size = 3000
     optimize_by_default = False
     option_names = ()
-    supported_L = (0, 1)
-    #: S states: float64 with mixed refinement or extended precision, and an error bar; P
-    #: states: float64.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
+    supported_L = (0, 1, 2, 3)
+    #: S states: float64 with mixed refinement or extended precision, and an error bar; P, D
+    #: and F states: float64 with the error bar.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
     #: ``--optimize`` tunes S boxes at the stored set's size (else 120), at most 400 (the float64
     #: energy it minimizes stops seeing the basis near 1e-10 Eh, and each evaluation is O(N³))
-    support = Support(L_values=(0, 1), precision={0: ("float64", "mixed", "extended")},
-                      error_bar_L=(0, 1), sizes={0: 600, 1: 600}, tuning_size=120,
+    support = Support(L_values=(0, 1, 2, 3), precision={0: ("float64", "mixed", "extended")},
+                      error_bar_L=(0, 1, 2, 3), sizes={0: 600, 1: 600, 2: 600, 3: 600},
+                      tuning_size=120,
                       tuning_max_size=400)
 
     def parameters(self, ion: Ion, state: State, size, options) -> list[Parameter]:

@@ -65,6 +65,8 @@ class Box:
     gamma: tuple[float, float]
     fraction: float
     from_size: int = 0
+    #: states with L >= 2: ``l`` of the electron of ``α`` in this box's terms (``None``: ``L``)
+    l1: int | None = None
 
     def edges(self) -> tuple[float, ...]:
         return (*self.alpha, *self.beta, *self.gamma)
@@ -74,6 +76,8 @@ class Box:
                "gamma": list(self.gamma)}
         if self.from_size:
             out["from_size"] = self.from_size
+        if self.l1 is not None:
+            out["l1"] = self.l1
         return out
 
     def scaled(self, alpha: float, beta: float, gamma: float) -> "Box":
@@ -83,10 +87,11 @@ class Box:
                        gamma=(self.gamma[0] * gamma, self.gamma[1] * gamma))
 
     @classmethod
-    def from_edges(cls, edges, fraction: float, from_size: int = 0) -> "Box":
+    def from_edges(cls, edges, fraction: float, from_size: int = 0, l1: int | None = None) -> "Box":
         e = [float(x) for x in edges]
         pairs = [tuple(sorted(e[k:k + 2])) for k in (0, 2, 4)]
-        return cls(pairs[0], pairs[1], pairs[2], float(fraction), int(from_size))
+        return cls(pairs[0], pairs[1], pairs[2], float(fraction), int(from_size),
+                   None if l1 is None else int(l1))
 
 
 @dataclass(frozen=True)
@@ -117,7 +122,7 @@ class BoxSet:
         boxes = []
         for k, box in enumerate(self.boxes, start=1):
             edges = [float(values.get(f"box{k}_{key}", v)) for key, v in zip(EDGE_KEYS, box.edges())]
-            boxes.append(Box.from_edges(edges, box.fraction, box.from_size))
+            boxes.append(Box.from_edges(edges, box.fraction, box.from_size, box.l1))
         return replace(self, boxes=tuple(boxes))
 
     def provenance(self) -> dict:
@@ -148,7 +153,10 @@ def parse_boxes(entries, where: str = "boxes") -> list[Box]:
         start = box.get("from_size", 0)
         if isinstance(start, bool) or not isinstance(start, int) or start < 0:
             raise InputError(f"{where}: from_size must be a non-negative integer, got {start!r}")
-        boxes.append(Box.from_edges(edges, box["fraction"], start))
+        l1 = box.get("l1")
+        if l1 is not None and (isinstance(l1, bool) or not isinstance(l1, int) or not 0 <= l1 <= 9):
+            raise InputError(f"{where}: l1 must be an integer 0..9, got {l1!r}")
+        boxes.append(Box.from_edges(edges, box["fraction"], start, l1))
     if not boxes:
         raise InputError(f"{where}: no boxes")
     if all(b.from_size for b in boxes):
@@ -222,10 +230,22 @@ def generic_boxes(ion: Ion, state: State) -> BoxSet:
         boxes = (Box((0.7 * Z, 1.5 * Z), (0.3 * outer, 1.5 * outer), (0.01, 0.3 * outer), 0.5),
                  Box((0.5 * Z, 4.0 * Z), (0.1 * outer, 2.0 * outer), (0.02, 1.0 * outer), 0.3),
                  Box((1.0 * Z, 10.0 * Z), (0.3 * outer, 3.0 * Z), (0.01, 2.0 * Z), 0.2))
-    else:
+    elif state.L == 1:
         outer = max(Z - 1.0, 0.1) / state.n
         boxes = (Box((0.3 * outer, 2.0 * outer), (0.8 * Z, 1.3 * Z), (0.0, 0.3), 0.5),
                  Box((0.5 * outer, 3.0 * outer), (0.5 * Z, 2.0 * Z), (0.0, 0.8), 0.5))
+    else:
+        # the pattern of the He 3^3D set tuned at N = 300, in units of the outer exponent
+        # (Z - 1)/n and of Z: the outer electron carrying L (two boxes), one unit of angular
+        # momentum on the inner electron (l1 = L - 1, an outer-inner and a symmetric box) and
+        # the exchange image with the inner exponent on the α electron (l1 = 0)
+        o = max(Z - 1.0, 0.1) / state.n
+        boxes = (Box((0.5 * o, 2.4 * o), (0.65 * Z, 1.13 * Z), (0.0, 0.08 * o), 0.27027),
+                 Box((0.3 * o, 5.4 * o), (0.7 * Z, 1.3 * Z), (0.0, 1.3 * o), 0.288288),
+                 Box((0.3 * o, 5.1 * o), (0.77 * Z, 1.06 * Z), (0.0, 0.8 * o), 0.171171, l1=state.L - 1),
+                 Box((0.15 * Z, 1.5 * Z), (0.15 * Z, 1.5 * Z), (0.0, 0.5 * Z), 0.135135,
+                     l1=state.L - 1),
+                 Box((0.15 * o, 4.6 * o), (0.5 * Z, 2.0 * Z), (0.0, 0.5 * Z), 0.135135, l1=0))
     return BoxSet(Z, state.label, boxes, None, None, "generic guess scaled with Z (not optimized)",
                   "", "generic")
 

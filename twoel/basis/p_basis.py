@@ -1,30 +1,30 @@
-r"""Explicitly correlated basis for P states (total L = 1, odd parity, M = 0 component).
+r"""Explicitly correlated basis for P states (total L = 1, odd parity): the ``L = 1`` case of
+:class:`twoel.basis.angular.AngularBasis`.
 
 Basis functions are
 
 .. math:: \Phi_n = \sum_p C_{pn}\,\big[ z_1\, g_p(r_1, r_2, r_{12}) \pm z_2\, g_p(r_2, r_1, r_{12}) \big],
           \qquad g_p = r_1^{i} r_2^{j} r_{12}^{k} e^{-\alpha_p r_1 - \beta_p r_2 - \gamma_p r_{12}},
 
-``+`` for singlets (spatially symmetric) and ``-`` for triplets.  Every natural-parity L = 1
-function of two electrons has the form ``r1 f(r1, r2, r12) + r2 f'(...)``, so with enough
-exponents this family is complete for ``n¹P`` and ``n³P``.  The matrix elements reduce, after
-the rotational average ``(ẑ·u)(ẑ·v) -> u·v/3``, to the integrals ``I(a, b, c)`` of
-:mod:`twoel.integrals` (derivation in :mod:`twoel.integrals.symbolic_states`).
+``+`` for singlets (spatially symmetric) and ``-`` for triplets (written for ``M = 0``; the
+matrices are those of any ``M`` component, e.g. the ``ε·r1`` of the general basis).  Every
+natural-parity L = 1 function of two electrons has the form ``r1 f(r1, r2, r12) + r2 f'(...)``,
+so with enough exponents this family is complete for ``n¹P`` and ``n³P``.  The matrix elements
+reduce, after the rotational average ``(ẑ·u)(ẑ·v) -> u·v/3``, to the integrals ``I(a, b, c)``
+of :mod:`twoel.integrals` (derivation in :mod:`twoel.integrals.symbolic_states`).
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
-import numpy as np
-
-from twoel.basis.correlated import MAX_PRIMITIVES, PrimitiveArrays  # noqa: F401 (MAX_PRIMITIVES re-exported)
-
-#: largest number of primitives accepted
+from twoel.basis.angular import AngularBasis
+from twoel.basis.correlated import MAX_PRIMITIVES, PrimitiveArrays  # noqa: F401 (re-exported)
+from twoel.errors import InputError
 
 
 @dataclass(frozen=True)
-class PBasis(PrimitiveArrays):
+class PBasis(AngularBasis):
     """Primitives ``z1 g_p`` (exchange-symmetrized with ``sign``) of a P-state basis.
 
     Attributes
@@ -39,22 +39,13 @@ class PBasis(PrimitiveArrays):
     labels : tuple of str
     """
 
-    exponents: np.ndarray
-    sign: int = 1
-    powers: np.ndarray | None = None
-    contraction: np.ndarray | None = None
-    labels: tuple[str, ...] = field(default=())
-
-    angular_momentum = 1
+    angular_momentum: int = 1
 
     def __post_init__(self) -> None:
-        self._store_checked(all_pair_sums=True, label="P basis")
-
-    def matrices(self):
-        """Overlap, kinetic, nuclear (unit charge) and repulsion matrices (Hartree units)."""
-        from twoel.integrals.hamiltonian import hamiltonian_matrices
-
-        return hamiltonian_matrices(self)
+        if self.angular_momentum != 1 or (self.electron1_l is not None and
+                                          any(int(x) != 1 for x in self.electron1_l)):
+            raise InputError("a P basis has L = 1 with the angular factor on electron 1")
+        super().__post_init__()
 
     def describe(self) -> dict:
         return {

@@ -1,4 +1,4 @@
-r"""Named operator sets of S and P correlated bases, in the piece form of the pair evaluator.
+r"""Named operator sets of correlated bases (S, P, D, F), in the piece form of the pair evaluator.
 
 Operators are lists of ``(integrand, weight)`` pieces (see :mod:`twoel.integrals.pairs`, the one
 evaluator of correlated pair integrals, for the integrands and the exchange convention).
@@ -20,7 +20,8 @@ HAMILTONIAN = {
 
 
 def hamiltonian_matrices(basis):
-    """:class:`twoel.basis.correlated.SystemMatrices` of an S or P basis by the pair evaluator.
+    """:class:`twoel.basis.correlated.SystemMatrices` of a correlated basis (any L <= 3) by the
+    pair evaluator.
 
     (For S bases :func:`twoel.basis.correlated.build_matrices` is the same evaluator plus the
     zero-power closed forms.)

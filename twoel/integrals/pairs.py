@@ -1,8 +1,9 @@
-r"""The one evaluator of correlated pair integrals and operator matrices (S and P bases).
+r"""The one evaluator of correlated pair integrals and operator matrices (any L <= 3).
 
 Every matrix of the package between correlated primitives
 ``χ = r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}`` (S, :class:`twoel.basis.correlated.CorrelatedBasis`)
-or ``z1 χ`` (P, :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
+or ``(ε·r1)^l (ε·r2)^(L-l) χ`` (:class:`twoel.basis.angular.AngularBasis`, ``P`` the ``L = 1``
+case :class:`twoel.basis.p_basis.PBasis`) is a sum of integrals
 
 .. math:: I(a, b, c; \alpha, \beta, \gamma) = \int\!\!\int r_1^a r_2^b r_{12}^c
           e^{-\alpha r_1 - \beta r_2 - \gamma r_{12}}\, d^3r_1\, d^3r_2
@@ -38,7 +39,9 @@ derivations of :mod:`twoel.integrals.symbolic` and :mod:`twoel.integrals.symboli
 (generated ``generated/kinetic_terms.py`` and ``generated/state_terms.py``).  Basis functions are
 ``(1 ± P12)`` applied to the primitives (times the contraction, if any); as in
 :mod:`twoel.basis.correlated` the common factor 2 of ``<(1±P)χ|O|(1±P)χ'> = 2(<χ|O|χ'> ± <χ|O|Pχ'>)``
-is dropped.
+is dropped.  A basis of ``L >= 1`` carries the channel ``l`` of every primitive
+(``electron1_l``); each pair takes the term list of its bra and ket channels (the exchanged ket
+has ``L - l``), selected by masks when a block holds several channel pairs.
 """
 
 from __future__ import annotations
@@ -246,8 +249,20 @@ def evaluate_terms(integrals: PairIntegrals, terms, base_powers, tables: Exponen
     return total
 
 
+def angular_momentum(basis) -> int:
+    """Total ``L`` of a correlated basis (0 for a CorrelatedBasis) with generated term lists."""
+    L = int(getattr(basis, "angular_momentum", 0))
+    if not 0 <= L <= T.MAX_L:
+        raise InputError(f"no operator integrals for total angular momentum L = {L}")
+    return L
+
+
 def basis_kind(basis) -> str:
-    """``"S"`` for a CorrelatedBasis, ``"P"`` for a PBasis."""
+    """``"S"`` for a CorrelatedBasis, ``"P"`` for a PBasis; other ``L`` raise.
+
+    (The operators of :mod:`twoel.properties` are written for S and P bases; the Hamiltonian
+    pieces of :func:`primitive_matrices` serve every ``L <= MAX_L``.)
+    """
     kind = getattr(basis, "angular_momentum", 0)
     if kind == 0:
         return "S"
@@ -256,22 +271,22 @@ def basis_kind(basis) -> str:
     raise InputError(f"no operator integrals for total angular momentum L = {kind}")
 
 
-def _term_functions(kind: str, integrand: str, exchanged: bool):
-    """``[(function or None, factor), ...]`` generating the integrand (``None``: the unit)."""
-    if integrand == "unit" and kind == "S":
+def _term_functions(L: int, integrand: str, la: int, lb: int):
+    """``[(function or None, factor), ...]`` generating the integrand (``None``: the unit) for
+    the bra channel ``la`` and ket channel ``lb`` (``l`` of electron 1)."""
+    if integrand == "unit" and L == 0:
         return [(None, 1.0)]
     if integrand == "kinetic":
-        if kind == "S":
+        if L == 0:
             return [(kinetic_terms, 1.0)]
-        pair = "cross" if exchanged else "same"
-        return [(T.TERMS[f"p_{pair}_grad11"], 0.5), (T.TERMS[f"p_{pair}_grad22"], 0.5)]
+        return [(T.TERMS[f"l{L}_{la}{lb}_grad11"], 0.5), (T.TERMS[f"l{L}_{la}{lb}_grad22"], 0.5)]
     if integrand not in INTEGRANDS:
         raise InputError(f"unknown integrand {integrand!r}; expected one of {', '.join(INTEGRANDS)}")
-    if kind == "S":
-        return [(T.TERMS[f"s_{integrand}"], 1.0)]
-    pair = "cross" if exchanged else "same"
     name = "angular" if integrand == "unit" else integrand
-    return [(T.TERMS[f"p_{pair}_{name}"], 1.0)]
+    function = T.TERMS.get(f"l{L}_{la}{lb}_{name}")
+    if function is None:
+        raise InputError(f"no generated {integrand!r} integrand for L = {L}")
+    return [(function, 1.0)]
 
 
 def _convolve(terms, weight, factor: float = 1.0):
@@ -291,8 +306,10 @@ class PairEngine:
 
     def __init__(self, basis, bra: np.ndarray | None = None, ket: np.ndarray | None = None):
         self.basis = basis
-        self.kind = basis_kind(basis)
+        self.L = angular_momentum(basis)
         self.sign = float(basis.sign)
+        l1 = getattr(basis, "electron1_l", None)
+        l1 = np.full(basis.powers.shape[0], self.L, dtype=np.int64) if l1 is None else np.asarray(l1)
         powers, exponents = basis.powers, basis.exponents
         P = powers.shape[0]
         if bra is None:  # all pairs, as a (P, P) grid
@@ -320,23 +337,27 @@ class PairEngine:
                                          return_inverse=True)
                 rows = bra_rows[codes // n_ket] + ket_rows[codes % n_ket]
                 tables = ExponentTables(rows, index.reshape(-1))
-            self._sides.append((exchanged, args, integrals, base, tables))
+            channels = _channels(l1[bra], (self.L - l1[ket]) if exchanged else l1[ket], self.L)
+            self._sides.append((exchanged, args, integrals, base, tables, channels))
 
     def terms(self, pieces) -> list:
         """The generated ``((p, q, s), coefficient)`` terms of an operator, per side (direct, exchanged)."""
         out = []
-        for exchanged, args, _integrals, _base, _tables in self._sides:
+        for _exchanged, args, _integrals, _base, _tables, channels in self._sides:
             terms = []
-            for integrand, weight in pieces:
-                for function, factor in _term_functions(self.kind, integrand, exchanged):
-                    generated = [((0, 0, 0), 1.0)] if function is None else function(*args)
-                    terms.extend(_convolve(generated, weight, factor))
+            for (la, lb), mask in channels:
+                for integrand, weight in pieces:
+                    for function, factor in _term_functions(self.L, integrand, la, lb):
+                        generated = [((0, 0, 0), 1.0)] if function is None else function(*args)
+                        if mask is not None:
+                            generated = [(shift, mask * c) for shift, c in generated]
+                        terms.extend(_convolve(generated, weight, factor))
             out.append(terms)
         return out
 
     def reserve(self, side_terms: list) -> None:
         """Build the tables once for the largest power any of the given term lists needs."""
-        for (_exchanged, _args, _integrals, base, tables), terms_lists in zip(self._sides, zip(*side_terms)):
+        for (_exchanged, _args, _integrals, base, tables, _ch), terms_lists in zip(self._sides, zip(*side_terms)):
             shifts = [max(s) for terms in terms_lists for s, _c in terms]
             if tables is None or not shifts:
                 continue
@@ -346,7 +367,7 @@ class PairEngine:
     def evaluate(self, side_terms) -> np.ndarray:
         """``<χ_bra|O|(1 ± P12)χ_ket>`` from the term lists of :meth:`terms`."""
         out = None
-        for (exchanged, _args, integrals, base, tables), terms in zip(self._sides, side_terms):
+        for (_exchanged, _args, integrals, base, tables, _ch), terms in zip(self._sides, side_terms):
             acc = evaluate_terms(integrals, terms, base, tables)
             out = acc if out is None else out + self.sign * acc
         return out.reshape(self.shape)
@@ -354,6 +375,16 @@ class PairEngine:
     def primitive(self, pieces) -> np.ndarray:
         """``<χ_bra|O|(1 ± P12)χ_ket>`` for every pair (shape of the pair list or (P, P))."""
         return self.evaluate(self.terms(pieces))
+
+
+def _channels(bra_l: np.ndarray, ket_l: np.ndarray, L: int) -> list:
+    """``[((la, lb), mask), ...]``: the channel pairs present among the pairs and a 0/1 float
+    mask of the pairs in each (``None`` when one pair of channels covers all)."""
+    codes = bra_l * (L + 1) + ket_l
+    present = np.unique(codes)
+    if present.size == 1:
+        return [((int(present[0]) // (L + 1), int(present[0]) % (L + 1)), None)]
+    return [((int(c) // (L + 1), int(c) % (L + 1)), (codes == c).astype(float)) for c in present]
 
 
 def _pieces(name: str, spec) -> list:

@@ -11,15 +11,17 @@
     ``MONOMIALS`` and ``NAMES``/``DEGREES`` (from :func:`twoel.integrals.symbolic.zero_power_source`).
     Its kinetic pieces are the kinetic integrand above at zero powers.
 ``state_terms.py``
-    Gradient, Laplacian and angular integrands of S and P correlated bases, one function each,
-    collected in ``TERMS`` (from :func:`twoel.integrals.symbolic_states.generated_source`); the S
-    gradient terms are the two halves of the same kinetic derivation.
+    Gradient, Laplacian and angular integrands of correlated bases of total ``L = 0 .. 3``, one
+    function per channel pair ``l<L>_<la><lb>_<integrand>``, collected in ``TERMS`` with the
+    older S (``s_*``) and P (``p_same_*``, ``p_cross_*``) names as aliases of the ``L = 0, 1``
+    lists (from :func:`twoel.integrals.symbolic_states.generated_source`); the S gradient terms
+    are the two halves of the same kinetic derivation.
 
 Regenerate all files with ``python -m twoel.integrals.generate`` or some of them with
 ``python -m twoel.integrals.generate kinetic_terms zero_power_kernels``.  Check that the files
 match their derivation, writing nothing, with ``python -m twoel.integrals.generate --check``
 (optionally naming targets): exit 0 if identical, 1 with a line naming the stale files.
 Measured on one core: 0.1-0.4 s (``kinetic_terms``), 1-3 s (``zero_power_kernels``) and
-13-22 s (``state_terms``).  ``tests/integrals/test_generate.py`` runs the check (the
+50-60 s (``state_terms``).  ``tests/integrals/test_generate.py`` runs the check (the
 ``state_terms`` target in the slow set).
 """
