@@ -83,6 +83,42 @@ def test_transition_2_3S_2_3P_small_basis():
     assert "nonrelativistic" in t.caution and "infinite" in t.caution
 
 
+#: He 3³D, Drake (2006 handbook, ch. 11; from memory)
+HE_3_3D = -2.055636309453261
+
+
+@pytest.mark.parametrize("lower, upper, exact", [
+    ("2^3S", "2^3P", HE["2^3P"] - HE["2^3S"]),
+    ("2^3P", "3^3D", HE_3_3D - HE["2^3P"]),   # the 588 nm line of He (the D3 line)
+])
+def test_transition_uncertainty_covers_the_error(lower, upper, exact):
+    """The stated uncertainty of ΔE (sum of the two level bars) covers the difference from
+    Drake's energies and is not absurdly loose; the wavelength bar is λ σ/ΔE."""
+    t = transition(2, lower, upper, size=200)
+    error = abs(t.energy_hartree - exact)
+    assert t.energy_uncertainty_hartree >= error
+    assert t.energy_uncertainty_hartree < 100 * max(error, 1e-11)
+    assert t.wavelength_uncertainty_nm == pytest.approx(
+        t.wavelength_vacuum_nm * t.energy_uncertainty_hartree / t.energy_hartree, rel=1e-12)
+    data = t.to_dict()
+    assert data["energy_uncertainty_hartree"] == t.energy_uncertainty_hartree
+    assert data["energy_uncertainty_cm1"] == pytest.approx(hartree_to(t.energy_uncertainty_hartree, "cm-1"))
+
+
+def test_transition_text_shows_only_supported_digits(capsys):
+    """Every printed energy carries its bar in parentheses and stops at the bar's digit."""
+    import re
+
+    assert main(["transition", "--Z", "2", "--from", "2^3P", "--to", "3^3D", "--size", "150"]) == 0
+    out = capsys.readouterr().out
+    energy_line = next(line for line in out.splitlines() if line.startswith("energy:"))
+    values = re.findall(r"([0-9.]+)\((\d)\)", energy_line)
+    assert len(values) == 4
+    wavelength = re.search(r"vacuum wavelength: ([0-9.]+)\((\d)\) nm", out)
+    assert wavelength is not None
+    assert "-2.133164190779" not in out.split("(reference")[0]   # no float64 tail on the level
+
+
 def test_transition_cli_json(capsys):
     code = main(["transition", "--Z", "2", "--from", "2^1S", "--to", "2 1P", "--size", "150", "--json"])
     assert code == 0
@@ -103,10 +139,13 @@ def test_transition_cli_text_gives_the_wavelength_and_its_caution(capsys):
 
     assert main(["transition", "--Z", "2", "--from", "2^3S", "--to", "2^3P", "--size", "100"]) == 0
     out = capsys.readouterr().out
-    printed = float(re.search(r"vacuum wavelength: ([0-9.]+) nm", out).group(1))
+    match = re.search(r"vacuum wavelength: ([0-9.]+)\((\d+)\) nm", out)
+    printed = float(match.group(1))
     per_metre = sc.physical_constants["hartree-inverse meter relationship"][0]
     exact = 1e9 / ((HE["2^3P"] - HE["2^3S"]) * per_metre)
     assert printed == pytest.approx(exact, abs=2e-3)
+    last_digit = 10.0 ** -len(match.group(1).split(".")[1])
+    assert abs(printed - exact) <= int(match.group(2)) * last_digit   # the printed bar covers it
     assert "caution: nonrelativistic" in out
 
 

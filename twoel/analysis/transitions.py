@@ -85,10 +85,23 @@ class Transition(Result):
     energy_thz: float
     wavelength_vacuum_nm: float
     caution: str = CAUTION
+    energy_uncertainty_hartree: float | None = None
+    reliable: bool | None = None
     lower_result: EnergyResult | None = None
     upper_result: EnergyResult | None = None
 
     SUMMARY = ("ion", "lower", "upper", "energy_hartree")
+
+    def uncertainty_in(self, unit: str) -> float | None:
+        """``energy_uncertainty_hartree`` converted to ``unit`` (``None`` without a bar)."""
+        bar = self.energy_uncertainty_hartree
+        return None if bar is None else hartree_to(bar, unit)
+
+    @property
+    def wavelength_uncertainty_nm(self) -> float | None:
+        """``λ σ_E / |ΔE|`` in nm (first order; ``None`` without a bar)."""
+        bar = self.energy_uncertainty_hartree
+        return None if bar is None else abs(self.wavelength_vacuum_nm) * bar / abs(self.energy_hartree)
 
     @property
     def is_emission(self) -> bool:
@@ -99,8 +112,11 @@ class Transition(Result):
         out = {k: getattr(self, k) for k in (
             "Z", "ion", "lower", "upper", "lower_energy_hartree", "upper_energy_hartree",
             "energy_hartree", "energy_cm1", "energy_ev", "energy_thz", "wavelength_vacuum_nm",
-            "caution")}
-        out["states"] = {r.state: {"energy_hartree": r.energy_hartree, "family": r.family,
+            "caution", "energy_uncertainty_hartree", "reliable")}
+        out["energy_uncertainty_cm1"] = self.uncertainty_in("cm-1")
+        out["wavelength_vacuum_uncertainty_nm"] = self.wavelength_uncertainty_nm
+        out["states"] = {r.state: {"energy_hartree": r.energy_hartree,
+                                   "error_bar_hartree": r.error_bar_hartree, "family": r.family,
                                    "size": r.size, "n_terms": r.n_terms,
                                    "reference": None if r.reference is None else r.reference.to_dict()}
                          for r in (self.lower_result, self.upper_result) if r is not None}
@@ -111,7 +127,7 @@ def transition_between(first: EnergyResult, second: EnergyResult) -> Transition:
     """Transition ``second - first`` (energies in every unit, positive for absorption)."""
     if first.Z != second.Z:
         raise UnsupportedError(f"a transition joins two levels of one ion (Z = {first.Z:g} vs {second.Z:g})")
-    delta = second.energy_hartree - first.energy_hartree
+    delta = _difference(first, second)
     if delta == 0:
         raise UnsupportedError("the two levels have the same energy: no transition")
     return Transition(
@@ -119,7 +135,33 @@ def transition_between(first: EnergyResult, second: EnergyResult) -> Transition:
         lower_energy_hartree=first.energy_hartree, upper_energy_hartree=second.energy_hartree,
         energy_hartree=delta, energy_cm1=hartree_to(delta, "cm-1"), energy_ev=hartree_to(delta, "ev"),
         energy_thz=hartree_to(delta, "thz"), wavelength_vacuum_nm=wavelength_vacuum_nm(delta),
+        energy_uncertainty_hartree=transition_uncertainty(first, second),
+        reliable=None if first.reliable is None or second.reliable is None
+        else bool(first.reliable and second.reliable),
         lower_result=first, upper_result=second)
+
+
+def _difference(first: EnergyResult, second: EnergyResult) -> float:
+    """``E_second - E_first`` from the full decimal texts (no float64 cancellation)."""
+    from decimal import Decimal, localcontext
+
+    with localcontext() as context:
+        context.prec = 50
+        return float(Decimal(second.energy_full_text) - Decimal(first.energy_full_text))
+
+
+def transition_uncertainty(first: EnergyResult, second: EnergyResult) -> float | None:
+    """Uncertainty of ``E_second - E_first`` in Eh: the sum of the two bars.
+
+    The two truncation errors have the same sign (both energies are upper bounds) but are not
+    independent draws, so the bars add linearly rather than in quadrature: the sum covers the
+    difference error whenever each bar covers its own level.  ``None`` when either level has
+    no bar.
+    """
+    bars = (first.error_bar_hartree, second.error_bar_hartree)
+    if any(b is None or b != b for b in bars):
+        return None
+    return float(bars[0] + bars[1])
 
 
 def transition(Z, from_state, to_state, size: int | None = None, **keywords) -> Transition:
