@@ -58,11 +58,11 @@ def _stop(*_args, **_kwargs):
 @contextlib.contextmanager
 def stop_before_solving():
     """Within: building any basis's matrices or an SCF integral table raises :class:`ReachedSolving`."""
-    from twoel.basis import correlated, p_basis
+    from twoel.basis import angular, correlated
     from twoel.integrals import hamiltonian
     from twoel.scf import hartree_fock, split_shell
 
-    patched = [(correlated.CorrelatedBasis, "matrices"), (p_basis.PBasis, "matrices"),
+    patched = [(correlated.CorrelatedBasis, "matrices"), (angular.AngularBasis, "matrices"),
                (correlated, "primitive_operator_matrices"), (hamiltonian, "hamiltonian_matrices"),
                (hartree_fock, "slater_integrals"), (split_shell, "slater_integrals")]
     saved = [(owner, name, owner.__dict__[name] if isinstance(owner, type) else getattr(owner, name))
