@@ -328,8 +328,8 @@ def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
     final = float64_energy(solved.matrices.hamiltonian(Z), solved.matrices.overlap, root,
                            plan.drop_threshold, solved.eig)
     bar = nested_error_bar(energy_at, plan.size, final, plan.fam.nested_sizes(plan.size))
-    bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x2); float64 energies, each with "
-                     "the rise of the energy when the drop threshold is raised 10x")
+    bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x{bar['bar_factor']:g}); "
+                     "float64 energies, each with the rise of the energy when the drop threshold is raised 10x")
     bar["float64_error_hartree"] = final.numerical_error_hartree
     return bar
 
