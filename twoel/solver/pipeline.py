@@ -377,8 +377,9 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily | None = Non
     digits : int, optional
         Significant digits aimed at by ``precision="extended"`` (default 20).
     error_bar : bool, optional
-        Estimate the basis-truncation error from two smaller nested bases (``N/2``, ``N/√2``;
-        :mod:`twoel.solver.error_bar`) and fill ``error_bar_hartree``.  Default: on where the
+        Estimate the basis-truncation error from the family's smaller nested bases
+        (exponential: ``N/2√2``, ``N/2``, ``N/√2``; :mod:`twoel.solver.error_bar`) and fill
+        ``error_bar_hartree``.  Default: on where the
         family declares an error bar (exponential S states), off otherwise.
     on_stage : callable, optional
         ``on_stage(text)`` is called as each long step begins (float64 solve, refinements, the

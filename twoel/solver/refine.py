@@ -239,6 +239,19 @@ ROUNDING_SAMPLES = 256
 ROUNDING_SIGMAS = 3.0
 
 
+# Validation of :func:`matrix_rounding_error`: deviation of the mixed energy from the
+# extended-precision energy of the same basis, against 3σ and the law (Eh; stored boxes):
+#     He 1¹S N = 400: 4.0e-20, 3.3e-19, 5.6e-19      N = 800: 4.3e-16, 2.6e-14, 1.2e-14
+#     He 1¹S N = 1131: 1.5e-17, 3.0e-17, 2.0e-17     Li⁺ N = 849: 8.3e-18, 5.4e-17, 1.1e-15
+#     Li⁺ N = 1200: 1.5e-17, 1.2e-15, 1.2e-14        H⁻ N = 1200: 3.3e-17, 2.2e-15, 3.5e-17
+#     He 2¹S N = 800: 5.4e-15, 2.0e-12, 4.0e-14
+# With the exact entries of the whole matrix the first-order sum reproduces the deviation at
+# He N = 400 (4.008e-20 Eh) but not at N = 800 (-1.0e-14 Eh): there the refined vector itself
+# moves with the rounding, which no first-order sum follows; re-solving with independently
+# perturbed matrices gave shifts 5-20 times *below* the deviation at N = 1131 (the actual
+# rounding errors are correlated), so that was not adopted.
+
+
 def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict, energy: float,
                           x: DD, norm: float, samples: int = ROUNDING_SAMPLES, seed: int = 0) -> dict:
     r"""What the rounding of the double-double matrices does to the refined energy (Eh), measured.
@@ -258,28 +271,9 @@ def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict
 
     The second estimate is the calibrated law ``C u |E| max|x_i|² / xᵀSx`` (``u = 2^-106``,
     ``C =`` :data:`MATRIX_ERROR_FACTOR`), which sees only the cancellation of the norm.  The
-    estimate is the smaller of :data:`ROUNDING_SIGMAS` ``· σ`` and the law.  Deviations of the
-    mixed energy from the extended-precision energy of the same basis, against the two:
-
-    ============  ==========  ===========  ==========
-    basis         deviation   3σ           law
-    ============  ==========  ===========  ==========
-    He N = 400    4.0e-20     3.3e-19      5.6e-19
-    He N = 800    4.3e-16     2.6e-14      1.2e-14
-    He N = 1131   1.5e-17     3.0e-17      2.0e-17
-    Li⁺ N = 849   8.3e-18     5.4e-17      1.1e-15
-    Li⁺ N = 1200  1.5e-17     1.2e-15      1.2e-14
-    H⁻ N = 1200   3.3e-17     2.2e-15      3.5e-17
-    He 2¹S N=800  5.4e-15     2.0e-12      4.0e-14
-    ============  ==========  ===========  ==========
-
-    (Eh).  With the exact entries of the whole matrix the first-order sum reproduces the
-    deviation at N = 400 (4.008e-20 Eh) but not at N = 800 (-1.0e-14 Eh): there the refined
-    vector itself moves with the rounding, which no first-order sum follows, and re-solving with
-    independently perturbed matrices gave shifts 5-20 times *below* the deviation at N = 1131
-    (the actual rounding errors are correlated).  So the estimate is an order of magnitude
-    (1-80 times the deviation above), not a bound; a bar it sets is flagged
-    (:func:`twoel.solver.error_bar.nested_error_bar`).
+    estimate is the smaller of :data:`ROUNDING_SIGMAS` ``· σ`` and the law: an order of
+    magnitude (1-80 times the actual deviation in the validation above), not a bound, so
+    a bar it sets is flagged (:func:`twoel.solver.error_bar.nested_error_bar`).
 
     Parameters
     ----------
@@ -311,8 +305,8 @@ def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict
     weight = np.triu((x2[:, None] * x2[None, :]) * (m_h + abs(energy) * m_s) ** 2)
     total = float(weight.sum())
     if not total > 0 or not norm:
-        return {"error_hartree": 0.0, "sigma_hartree": 0.0, "relative_errors": [0.0, 0.0], "samples": 0,
-                "method": "no weight"}
+        return {"error_hartree": 0.0, "sigma_hartree": 0.0, "law_hartree": 0.0, "relative_errors": [0.0, 0.0],
+                "samples": 0, "method": "no weight"}
     rng = np.random.default_rng(seed)
     flat = rng.choice(weight.size, size=samples, p=(weight / total).ravel())
     rows, cols = np.divmod(flat, weight.shape[1])
