@@ -59,8 +59,9 @@ def row(Z, state, size, precision) -> dict:
     ratio = bar / abs(true) if bar and true and known else None
     honest = (bar is not None and (not known or bar >= abs(true)) and (ratio is None or ratio <= UPPER)) \
         or not reliable
+    note = (result.provenance.get("error_bar") or {}).get("note", "")
     return {"true": true, "bar": bar, "ratio": ratio, "reliable": reliable, "honest": honest, "known": known,
-            "seconds": seconds, "source": reference.source.split(",")[0]}
+            "seconds": seconds, "source": reference.source.split(",")[0], "note": note}
 
 
 def main(argv=None) -> int:
@@ -84,6 +85,8 @@ def main(argv=None) -> int:
                 ratio = "" if r["ratio"] is None else f"{r['ratio']:.1f}"
                 verdict = ("ok" if r["honest"] else "NOT OK") + ("" if r["known"] else
                                                                  " (true error below the reference's uncertainty)")
+                if not r["reliable"]:
+                    verdict += f"; reliable: false because {r['note'] or 'the result says so'}"
                 bad += not r["honest"]
                 print(f"{Z:>2} {state:5} {size:>5} {precision:9} {r['true']:11.1e} {bar:>9} {ratio:>9} "
                       f"{str(r['reliable']):8} {r['seconds']:6.1f}  {verdict}", flush=True)

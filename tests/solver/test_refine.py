@@ -133,7 +133,7 @@ def test_error_bar_companions_follow_the_digit_target():
     are refined in extended precision too (their texts carry more digits than the mixed 32)."""
     r = twoel.solve(2, "1^1S", "exponential", 40, precision="extended", digits=34)
     bar = r.provenance["error_bar"]
-    assert bar["sizes"] == [20, 28, 40]
+    assert bar["sizes"] == [14, 20, 28, 40]
     assert all(len(t.lstrip("-").replace(".", "")) > 33 for t in bar["energy_texts"])
     with mpmath.workdps(60):
         true_error = mpmath.mpf(r.provenance["energy_full_text"]) - mpmath.mpf(HE_GROUND)
@@ -145,7 +145,8 @@ def test_long_steps_are_announced():
     twoel.solve(2, "1^1S", "exponential", 40, precision="extended", digits=34, on_stage=stages.append)
     assert stages[0].startswith("float64 build and solve (exponential, size 40")
     assert any(s.startswith("extended precision, N = 40") for s in stages)
-    assert [s for s in stages if s.startswith("error bar")] == ["error bar: smaller basis N = 20",
+    assert [s for s in stages if s.startswith("error bar")] == ["error bar: smaller basis N = 14",
+                                                                 "error bar: smaller basis N = 20",
                                                                  "error bar: smaller basis N = 28"]
 
 

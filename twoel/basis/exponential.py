@@ -219,6 +219,14 @@ class ExponentialFamily(TrialFamily):
         target = stored.box_set_for(ion, state).optimized_size or self.support.tuning_size
         return min(size, target, self.support.tuning_max_size)
 
+    def nested_sizes(self, size: int) -> list[int]:
+        """``N/2√2``, ``N/2`` and ``N/√2``: the bases of fewer terms are the first terms of the
+        larger ones (:func:`box_counts`), and a fourth size lets the error bar use the measured
+        ratio of its steps (:func:`twoel.solver.error_bar.estimate_nested_tail`)."""
+        from twoel.solver.error_bar import four_size_error_bar_sizes
+
+        return four_size_error_bar_sizes(size)
+
     def convergence(self, ion: Ion, state: State) -> list[tuple[int, float]]:
         """The stored set's measured ``convergence`` (only for the exact ``(Z, state)`` stored)."""
         box_set = stored.box_set_for(ion, state)

@@ -17,9 +17,19 @@ Physics (2006), ch. 11, where ratios of successive differences are tabulated).
 and expected within it.  ``extrapolated value``: ``E_K - d_K q/(1-q)`` with the *measured*
 ratio, with the bar ``tail + numerical error`` from the conservative one.
 
-:func:`nested_error_bar` is the error bar of one solve of size ``N`` from the bases ``N/2`` and
-``N/√2`` (:func:`error_bar_sizes`); :mod:`twoel.analysis.convergence` uses the same
-:func:`estimate_tail` for a study over many sizes.
+Four nested sizes (:func:`estimate_nested_tail`, used when a family declares three smaller
+sizes, as the exponential family does: ``N/2√2``, ``N/2``, ``N/√2``) give two ratios, and the
+tail uses the larger *measured* one without the 1/3 floor, with the bar
+:data:`NESTED_BAR_FACTOR` ``· tail``: the floor made the bars of fast-converging bases 30-150
+times the true error, and a second ratio is a better guard against a step that is fast by
+accident.
+
+:func:`nested_error_bar` is the error bar of one solve of size ``N`` from its nested smaller
+bases (:func:`error_bar_sizes` or :func:`four_size_error_bar_sizes`);
+:mod:`twoel.analysis.convergence` uses :func:`estimate_tail` for a study over many sizes.  Where
+the bar is set by an arithmetic error that is a statistical estimate rather than a bound (the
+mixed step's matrix rounding, :func:`twoel.solver.refine.matrix_rounding_error`), the bar is
+marked ``reliable: false``.
 """
 
 from __future__ import annotations
@@ -41,6 +51,12 @@ MAX_RATIO = 0.8
 MIN_RATIO = 1.0 / 3.0
 #: factor between the tail estimate and the error bar of the variational (upper-bound) value
 BAR_FACTOR = 2.0
+#: the same for :func:`estimate_nested_tail` (measured ratio, no floor): over the solves of
+#: ``benchmarks/error_bars.py`` (He, H⁻, Li⁺ 1¹S, He 2¹S, 2³S, 2¹P, 2³P, four sizes, float64 and
+#: extended) the true basis error lies between 0.14 (Li⁺ N = 200) and 2.8 (H⁻ N = 1200,
+#: extended) times the measured tail ``d q/(1-q)``; 3.5, near the geometric middle, keeps every
+#: bar 1.2-25 times the true error
+NESTED_BAR_FACTOR = 3.5
 
 
 @dataclass(frozen=True)
@@ -122,6 +138,51 @@ def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
     return TailEstimate(tail, q, last - measured_tail, variational_bar, extrapolated_bar, reliable, note)
 
 
+def estimate_nested_tail(energies: Sequence[float], numerical_error: float = 0.0,
+                         energies_precise: Sequence | None = None) -> TailEstimate:
+    r"""Tail of four (or more) nested energies from their *measured* ratio (see module text).
+
+    With the last three steps ``d_1, d_2, d_3`` (sizes ``N/2√2, N/2, N/√2, N``) the ratio is
+    ``q = max(d_2/d_1, d_3/d_2)`` as measured, without the floor :data:`MIN_RATIO`: two ratios
+    instead of one already catch a step that is fast by accident, and the floor made the bars of
+    fast-converging bases 30-150 times the true error.  The tail is ``d_3 q/(1-q)`` and the
+    variational bar :data:`NESTED_BAR_FACTOR` times it plus the arithmetic error.  Ratios above
+    :data:`MAX_RATIO` or rising energies are capped and flagged as for :func:`estimate_tail`.
+
+    Parameters
+    ----------
+    energies : sequence of float
+        ``E(N_k)`` for increasing nested sizes (Eh), at least four.
+    numerical_error : float
+        Arithmetic error of the last two energies (Eh), added to the bars.
+    energies_precise : sequence, optional
+        The same energies as higher-precision numbers (see :func:`estimate_tail`).
+    """
+    if len(energies) < 4:
+        raise InputError("a nested-basis tail needs at least four basis sizes")
+    diffs = steps(energies, energies_precise)[-3:]
+    floor = max(numerical_error, 0.0)
+    reliable, note = True, ""
+    if min(diffs[1:]) < -2 * floor - 1e-300:
+        reliable = False
+        note = "energies do not decrease with N (numerical noise or non-nested bases)"
+    ratios = [diffs[k] / diffs[k - 1] for k in (1, 2) if diffs[k - 1] > 0]
+    q = max(ratios) if ratios else MAX_RATIO
+    if not 0 < q < MAX_RATIO:
+        if not note:
+            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
+        reliable = reliable and 0 < q < 1
+        q = MAX_RATIO
+    d = max(diffs[-1], 0.0)
+    tail = d * q / (1.0 - q)
+    if d <= 2 * floor:
+        note = note or "differences at the level of the arithmetic error: converged to it"
+        tail = max(tail, floor)
+    last = float(energies[-1])
+    return TailEstimate(tail, q, last - tail, NESTED_BAR_FACTOR * tail + floor,
+                        (NESTED_BAR_FACTOR - 1.0) * tail + floor, reliable, note)
+
+
 @dataclass(frozen=True)
 class Float64Energy:
     """A float64 eigenvalue with an a-posteriori estimate of its arithmetic error (Eh).
@@ -173,9 +234,27 @@ def error_bar_sizes(size: int) -> list[int]:
     return sorted({max(4, int(round(size / 2))), max(5, int(round(size / math.sqrt(2.0))))} - {size})
 
 
+def four_size_error_bar_sizes(size: int) -> list[int]:
+    """``N/2√2``, ``N/2``, ``N/√2``: three smaller nested sizes, for :func:`estimate_nested_tail`
+    (fewer when the basis is too small for three distinct ones)."""
+    smallest = max(3, int(round(size / (2.0 * math.sqrt(2.0)))))
+    return sorted(n for n in {smallest} | set(error_bar_sizes(size)) if n < size)
+
+
+def _statistical(energy) -> bool:
+    """Whether the arithmetic error of an energy is a statistical estimate (the mixed step's
+    measured matrix rounding, :func:`twoel.solver.refine.matrix_rounding_error`), not a bound."""
+    return bool(getattr(energy, "arithmetic", None))
+
+
 def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
                      sizes: Sequence[int] | None = None) -> dict:
-    """Truncation error bar of a solve of ``size`` terms from the nested bases ``N/2``, ``N/√2``.
+    """Truncation error bar of a solve of ``size`` terms from smaller nested bases.
+
+    With two smaller sizes (default :func:`error_bar_sizes`: ``N/2``, ``N/√2``) the tail is
+    :func:`estimate_tail` (ratio at least :data:`MIN_RATIO`, bar x :data:`BAR_FACTOR`); with three
+    or more (:func:`four_size_error_bar_sizes`) it is :func:`estimate_nested_tail` (measured
+    ratio, bar x :data:`NESTED_BAR_FACTOR`).
 
     Parameters
     ----------
@@ -187,31 +266,40 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
     refined : RefinedEnergy
         Its refined energy.
     sizes : sequence of int, optional
-        The two smaller nested sizes (default :func:`error_bar_sizes`: ``N/2``, ``N/√2``).
+        The smaller nested sizes.
 
     Returns
     -------
     dict
         ``error_bar_hartree``, ``tail_hartree``, ``ratio``, ``sizes``, ``energy_texts``,
-        ``extrapolated_hartree`` (Eh), ``reliable``, ``note``, ``method``.
+        ``extrapolated_hartree`` (Eh), ``reliable``, ``note``, ``method``, ``bar_factor``.
     """
-    texts, numerical = [], [refined.numerical_error_hartree]
+    texts, numerical, statistical = [], [refined.numerical_error_hartree], [_statistical(refined)]
     sizes = error_bar_sizes(size) if sizes is None else sorted(sizes)
     for n in sizes:
         aux = refined_at(n)
         texts.append(aux.text)
         numerical.append(aux.numerical_error_hartree)
+        statistical.append(_statistical(aux))
     texts.append(refined.text)
     energies = [float(t) for t in texts]
-    # the arithmetic error of N/2 enters only the ratio (which is clamped); those of N/√2 and N
+    # the arithmetic errors of the smaller bases enter only the ratio; those of N/√2 and N
     # enter the last step and the value itself
     floor = max(numerical[0], numerical[-1])
-    estimate = estimate_tail(energies, floor, texts)
-    note = estimate.note
-    if floor > estimate.tail_hartree:
+    four = len(sizes) >= 3
+    estimate = (estimate_nested_tail if four else estimate_tail)(energies, floor, texts)
+    factor = NESTED_BAR_FACTOR if four else BAR_FACTOR
+    note, reliable = estimate.note, estimate.reliable
+    if floor > 0 and floor >= estimate.tail_hartree:
         note = (note + "; " if note else "") + ("the bar is set by the estimated arithmetic error, "
                                                 "not by the basis: a higher precision gives a tighter one")
+        if statistical[0] or statistical[-1]:  # the floor comes from N or N/√2
+            reliable = False
+            note += (" (the double-double rounding is estimated statistically, not bounded: the bar "
+                     "can be far wider than the error, or short of it; --precision extended bounds it)")
+    names = ("N/2√2, " if four else "") + "N/2, N/√2, N"
     return {"error_bar_hartree": estimate.variational_bar_hartree, "tail_hartree": estimate.tail_hartree,
             "ratio": estimate.ratio, "sizes": sizes + [size], "energy_texts": texts,
-            "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": estimate.reliable,
-            "note": note, "method": "geometric tail of nested bases N/2, N/√2, N (x2)"}
+            "extrapolated_hartree": estimate.extrapolated_hartree, "reliable": reliable,
+            "note": note, "bar_factor": factor,
+            "method": f"geometric tail of nested bases {names} (x{factor:g})"}

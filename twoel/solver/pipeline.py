@@ -351,8 +351,8 @@ def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
     final = float64_energy(solved.matrices.hamiltonian(Z), solved.matrices.overlap, root,
                            plan.drop_threshold, solved.eig)
     bar = nested_error_bar(energy_at, plan.size, final, plan.fam.nested_sizes(plan.size))
-    bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x2); float64 energies, each with "
-                     "the rise of the energy when the drop threshold is raised 10x")
+    bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x{bar['bar_factor']:g}); "
+                     "float64 energies, each with the rise of the energy when the drop threshold is raised 10x")
     bar["float64_error_hartree"] = final.numerical_error_hartree
     return bar
 
@@ -400,8 +400,9 @@ def solve(Z, state: str | State = "1^1S", family: str | TrialFamily | None = Non
     digits : int, optional
         Significant digits aimed at by ``precision="extended"`` (default 20).
     error_bar : bool, optional
-        Estimate the basis-truncation error from two smaller nested bases (``N/2``, ``N/√2``;
-        :mod:`twoel.solver.error_bar`) and fill ``error_bar_hartree``.  Default: on where the
+        Estimate the basis-truncation error from the family's smaller nested bases
+        (exponential: ``N/2√2``, ``N/2``, ``N/√2``; :mod:`twoel.solver.error_bar`) and fill
+        ``error_bar_hartree``.  Default: on where the
         family declares an error bar (exponential S states), off otherwise.
     on_stage : callable, optional
         ``on_stage(text)`` is called as each long step begins (float64 solve, refinements, the
