@@ -51,10 +51,11 @@ def test_energy_summary_prints_units_and_reference(capsys):
 def test_not_bound_is_reported_as_such(capsys):
     code, out, _ = run_cli(capsys, "energy", "--Z", "1", "--family", "screened", "--json")
     data = json.loads(out)
-    assert code == 0 and data["bound"] is False and data["ionization_energy_hartree"] is None
+    assert code == 4 and data["bound"] is False and data["ionization_energy_hartree"] is None
     # -(1 - 5/16)² = -0.47265625 Eh lies above H(1s) + e⁻ = -0.5 Eh
     assert data["energy_hartree"] == pytest.approx(-0.47265625, abs=1e-12)
     code, out, _ = run_cli(capsys, "energy", "--Z", "1", "--family", "screened")
+    assert code == 4
     assert "not bound" in out
 
 

@@ -320,3 +320,15 @@ def test_a_report_over_a_file_is_refused_before_solving(run_cli, tmp_path, monke
     code, _, err = run_cli("report", "--quiet", "--demo", "--out", str(plain), "--overwrite")
     one_line_refusal(code, err)
     assert "not a folder" in err and plain.read_text() == "keep"
+
+
+def test_energy_of_an_unbound_state_has_its_own_exit_code(run_cli):
+    """Z = 0.7 lies below the critical charge Z_c ≈ 0.911 (Estienne et al., Phys. Rev. Lett.
+    112, 173001 (2014)), so no 1¹S root is below -Z²/2: exit 4 and the words "not bound"."""
+    from twoel.cli.energy import NOT_BOUND_EXIT_CODE
+
+    code, out, _ = run_cli("energy", "--Z", "0.7", "--family", "exponential", "--size", "40")
+    assert code == NOT_BOUND_EXIT_CODE == 4
+    assert "not bound" in out and "threshold (one-electron ion): -0.245 Eh" in out
+    code, out, _ = run_cli("energy", "--Z", "2", "--family", "exponential", "--size", "40", "--json")
+    assert code == 0

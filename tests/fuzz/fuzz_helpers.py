@@ -110,7 +110,7 @@ def assert_clean_outcome(code, out: str, err: str, reached: bool = False) -> Non
     assert "Traceback" not in err and "Traceback" not in out, err[-2000:]
     if reached:
         return
-    assert code in (0, 1, 2), f"exit {code}: {err[-2000:]}"
+    assert code in (0, 1, 2, 4), f"exit {code}: {err[-2000:]}"
     if code == 2:
         assert err.count("\n") == 1 and err.endswith("\n"), f"not one line: {err[-2000:]!r}"
         assert len(err) < 1200, f"an error of {len(err)} characters: {err[:300]!r}"

@@ -30,7 +30,7 @@ def build_parser() -> TwoelArgumentParser:
         description="Variational energies of two-electron atoms and helium-like ions "
                     "(Hartree atomic units inside; CODATA conversions at the edges).",
         epilog="exit status: 0 success; 1 a check that failed (report --from-provenance); "
-               "2 bad input; 3 internal error; 130 interrupted")
+               "2 bad input; 3 internal error; 4 energy: the state is not bound; 130 interrupted")
     parser.add_argument("--version", action="version", version=f"twoel {__version__}")
     parser.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
     subparsers = parser.add_subparsers(title="commands", metavar="COMMAND", parser_class=TwoelArgumentParser)

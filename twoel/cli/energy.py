@@ -12,6 +12,10 @@ NAME = "energy"
 HELP = "variational energy and ionization energy of one state of one ion"
 
 
+#: exit code of ``energy`` when the computed root is not below the one-electron threshold
+NOT_BOUND_EXIT_CODE = 4
+
+
 def add_parser(subparsers) -> None:
     p = subparsers.add_parser(NAME, help=HELP, description=HELP)
     add_charge_argument(p)
@@ -39,7 +43,7 @@ def summary_text(result) -> str:
         lines.append(_ionization_line(result))
     else:
         lines.append(f"not bound: {result.message}")
-    lines.append(f"threshold (one-electron ion): {result.threshold_hartree!r} Eh")
+    lines.append(f"threshold (one-electron ion): {result.threshold_hartree:.15g} Eh")
     if result.reference is not None:
         ref = result.reference
         lines.append(f"reference: {ref.value_text} Eh  [{ref.source}; {ref.note}]")
@@ -102,4 +106,4 @@ def run(args: argparse.Namespace) -> int:
         print_json(energy_record(result, full=args.full))
     else:
         sys.stdout.write(summary_text(result))
-    return 0
+    return 0 if result.bound else NOT_BOUND_EXIT_CODE
