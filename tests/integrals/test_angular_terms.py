@@ -5,6 +5,7 @@ the L = 0, 1 lists against the S and z1-form P derivations."""
 from __future__ import annotations
 
 import numpy as np
+from finite_differences import grad as _grad, lap as _lap
 import pytest
 import sympy as sp
 
@@ -58,9 +59,6 @@ def test_traceless_form_low_ranks():
 
 
 # --- generated integrands against finite differences averaged over orientations ----------------
-H = 1e-3
-FIRST = ((-2, 1 / 12), (-1, -8 / 12), (1, 8 / 12), (2, -1 / 12))
-SECOND = ((-2, -1 / 12), (-1, 16 / 12), (0, -30 / 12), (1, 16 / 12), (2, -1 / 12))
 
 
 def _primitive(params, l1, l2, eps):
@@ -74,21 +72,6 @@ def _primitive(params, l1, l2, eps):
     return f
 
 
-def _stencil(f, x, index, weights, power):
-    total = 0.0
-    for step, weight in weights:
-        y = x.copy()
-        y[index] += step * H
-        total += weight * f(y)
-    return total / H**power
-
-
-def _grad(f, x, n):
-    return np.array([_stencil(f, x, 3 * (n - 1) + d, FIRST, 1) for d in range(3)])
-
-
-def _lap(f, x, n):
-    return sum(_stencil(f, x, 3 * (n - 1) + d, SECOND, 2) for d in range(3))
 
 
 def _integrand(name, bra, ket, x):

@@ -10,14 +10,12 @@ three coordinate axes gives exactly (``⟨n̂ᵀ M n̂⟩ = tr M / 3``).
 from __future__ import annotations
 
 import numpy as np
+from finite_differences import grad as _grad, lap as _lap
 import pytest
 
 from twoel.integrals.generated.kinetic_terms import kinetic_terms
 from twoel.integrals.generated.state_terms import TERMS
 
-H = 1e-3
-FIRST = ((-2, 1 / 12), (-1, -8 / 12), (1, 8 / 12), (2, -1 / 12))
-SECOND = ((-2, -1 / 12), (-1, 16 / 12), (0, -30 / 12), (1, 16 / 12), (2, -1 / 12))
 #: tolerance relative to the size of the generated terms (measured worst: 1.8e-10)
 REL = 1e-8
 
@@ -37,21 +35,6 @@ def _primitive(params, electron=None, axis=None):
     return f
 
 
-def _stencil(f, x, index, weights, power):
-    total = 0.0
-    for step, weight in weights:
-        y = x.copy()
-        y[index] += step * H
-        total += weight * f(y)
-    return total / H**power
-
-
-def _grad(f, x, n):
-    return np.array([_stencil(f, x, 3 * (n - 1) + d, FIRST, 1) for d in range(3)])
-
-
-def _lap(f, x, n):
-    return sum(_stencil(f, x, 3 * (n - 1) + d, SECOND, 2) for d in range(3))
 
 
 def _integrands(bra, ket, x):
