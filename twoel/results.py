@@ -119,6 +119,16 @@ def agreeing_digits(value: float, reference: float) -> int:
     return max(0, int(math.floor(-math.log10(diff / abs(reference)))))
 
 
+
+def text_difference(minuend: str, subtrahend: str) -> float:
+    """``minuend - subtrahend`` of two decimal texts (Eh), taken at 60 digits so that no digit
+    is lost to float64 cancellation."""
+    from decimal import Decimal, localcontext
+
+    with localcontext() as context:
+        context.prec = 60
+        return float(Decimal(minuend) - Decimal(subtrahend))
+
 @dataclass(frozen=True)
 class Wavefunction:
     """A basis and the linear coefficients of one root (normalized, ``c^T S c = 1``).
@@ -196,11 +206,7 @@ class EnergyResult(Result):
         float64 rounding for large ``|E|``."""
         if self.reference is None:
             return None
-        from decimal import Decimal, localcontext
-
-        with localcontext() as context:
-            context.prec = 60
-            return float(Decimal(self.energy_full_text) - Decimal(self.reference.value_text))
+        return text_difference(self.energy_full_text, self.reference.value_text)
 
     @property
     def energy_full_text(self) -> str:

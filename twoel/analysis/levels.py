@@ -408,27 +408,10 @@ def _solve_level(task: dict):
 
 
 def _run_tasks(tasks: list[dict], jobs: int | None, progress) -> list:
-    from twoel.analysis.sweep import resolve_jobs
+    from twoel.analysis.sweep import run_tasks
 
-    workers = resolve_jobs(jobs, len(tasks))
-    if workers == 1:
-        out = []
-        for task in tasks:
-            out.append(_solve_level(task))
-            if progress is not None:
-                progress(len(out), len(tasks), task["state"])
-        return out
-    import multiprocessing
-    from concurrent.futures import ProcessPoolExecutor
-
-    method = "fork" if "fork" in multiprocessing.get_all_start_methods() else "spawn"
-    out = []
-    with ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context(method)) as pool:
-        for result in pool.map(_solve_level, tasks, chunksize=1):
-            out.append(result)
-            if progress is not None:
-                progress(len(out), len(tasks), tasks[len(out) - 1]["state"])
-    return out
+    report = None if progress is None else (lambda done, total, task: progress(done, total, task["state"]))
+    return run_tasks(_solve_level, tasks, jobs, report)
 
 
 def compute_levels(Z, n_max: int = 5, L_max: int = 3, *, family: str | None = None,

@@ -98,27 +98,38 @@ def solve_many(tasks: Sequence[dict], jobs: int | None = 1, progress: Progress =
     """
     tasks = [dict(t) for t in tasks]
     report = _callback(progress)
+    return run_tasks(_solve_task, tasks, jobs,
+                     None if report is None else (lambda done, total, task: report(done, total)))
+
+
+def run_tasks(worker: Callable[[dict], object], tasks: Sequence[dict], jobs: int | None,
+              report: Callable[[int, int, dict], None] | None = None) -> list:
+    """``worker(task)`` for every task, serially or in worker processes; results in task order.
+
+    ``report(done, total, task)`` is called after each finished task, in task order.  Workers
+    are forked where the platform allows: forked workers are copies of this process, BLAS
+    thread settings included, so each task runs exactly the code path (and gives exactly the
+    bits) of a serial run.  Where fork does not exist, spawned workers inherit the environment
+    (OPENBLAS_NUM_THREADS and friends).
+    """
     workers = resolve_jobs(jobs, len(tasks))
     results = []
     if workers == 1:
         for task in tasks:
-            results.append(_solve_task(task))
+            results.append(worker(task))
             if report is not None:
-                report(len(results), len(tasks))
+                report(len(results), len(tasks), task)
         return results
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor
 
-    # Forked workers are copies of this process, BLAS thread settings included, so each task
-    # runs exactly the code path (and gives exactly the bits) of a serial run.  Where fork does
-    # not exist, spawned workers inherit the environment (OPENBLAS_NUM_THREADS and friends).
     method = "fork" if "fork" in multiprocessing.get_all_start_methods() else "spawn"
     with ProcessPoolExecutor(max_workers=workers,
                              mp_context=multiprocessing.get_context(method)) as pool:
-        for result in pool.map(_solve_task, tasks, chunksize=1):  # yields in submission order
+        for result in pool.map(worker, tasks, chunksize=1):  # yields in submission order
             results.append(result)
             if report is not None:
-                report(len(results), len(tasks))
+                report(len(results), len(tasks), tasks[len(results) - 1])
         return results
 
 

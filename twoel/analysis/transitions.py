@@ -20,7 +20,7 @@ from dataclasses import dataclass
 from twoel.basis import get_family
 from twoel.errors import NotBoundError, UnsupportedError
 from twoel.solver.pipeline import solve
-from twoel.results import EnergyResult, Result
+from twoel.results import EnergyResult, Result, text_difference
 from twoel.system import Ion, State
 from twoel.units import hartree_to, wavelength_vacuum_nm
 
@@ -127,7 +127,7 @@ def transition_between(first: EnergyResult, second: EnergyResult) -> Transition:
     """Transition ``second - first`` (energies in every unit, positive for absorption)."""
     if first.Z != second.Z:
         raise UnsupportedError(f"a transition joins two levels of one ion (Z = {first.Z:g} vs {second.Z:g})")
-    delta = _difference(first, second)
+    delta = text_difference(second.energy_full_text, first.energy_full_text)
     if delta == 0:
         raise UnsupportedError("the two levels have the same energy: no transition")
     return Transition(
@@ -139,15 +139,6 @@ def transition_between(first: EnergyResult, second: EnergyResult) -> Transition:
         reliable=None if first.reliable is None or second.reliable is None
         else bool(first.reliable and second.reliable),
         lower_result=first, upper_result=second)
-
-
-def _difference(first: EnergyResult, second: EnergyResult) -> float:
-    """``E_second - E_first`` from the full decimal texts (no float64 cancellation)."""
-    from decimal import Decimal, localcontext
-
-    with localcontext() as context:
-        context.prec = 50
-        return float(Decimal(second.energy_full_text) - Decimal(first.energy_full_text))
 
 
 def transition_uncertainty(first: EnergyResult, second: EnergyResult) -> float | None:

@@ -93,6 +93,26 @@ def step_ratios(d: Sequence[float]) -> list:
     return [d[k] / d[k - 1] if d[k - 1] else None for k in range(1, len(d))]
 
 
+def _capped_ratio(ratios: Sequence[float], reliable: bool, note: str) -> tuple[float, bool, str]:
+    """The largest measured step ratio, capped at :data:`MAX_RATIO` (and flagged) when it is
+    not well below 1 or when no ratio could be measured."""
+    q = max(ratios) if ratios else MAX_RATIO
+    if not 0 < q < MAX_RATIO:
+        if not note:
+            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
+        reliable = reliable and 0 < q < 1
+        q = MAX_RATIO
+    return q, reliable, note
+
+
+def _at_arithmetic_floor(d: float, floor: float, tail: float, note: str) -> tuple[float, str]:
+    """A last step within twice the arithmetic error: the tail is at least that error."""
+    if d <= 2 * floor:
+        note = note or "differences at the level of the arithmetic error: converged to it"
+        tail = max(tail, floor)
+    return tail, note
+
+
 def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
                   energies_precise: Sequence | None = None) -> TailEstimate:
     """Tail of the sequence (see module text).  Needs at least three energies.
@@ -119,19 +139,12 @@ def estimate_tail(energies: Sequence[float], numerical_error: float = 0.0,
         note = "energies do not decrease with N (numerical noise or non-nested bases)"
     ratios = [diffs[k] / diffs[k - 1] for k in range(1, len(diffs)) if diffs[k - 1] > 0]
     tail_ratios = ratios[-2:] if len(ratios) >= 2 else ratios
-    q = max(tail_ratios) if tail_ratios else MAX_RATIO
-    if not 0 < q < MAX_RATIO:
-        if not note:
-            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
-        reliable = reliable and 0 < q < 1
-        q = MAX_RATIO
+    q, reliable, note = _capped_ratio(tail_ratios, reliable, note)
     d = max(abs(d_last), 0.0)
     measured_tail = d * q / (1.0 - q) if q > 0 else 0.0  # best guess, for the extrapolation
     q = max(q, MIN_RATIO)
     tail = d * q / (1.0 - q)  # conservative, for the bars
-    if d <= 2 * floor:
-        note = note or "differences at the level of the arithmetic error: converged to it"
-        tail = max(tail, floor)
+    tail, note = _at_arithmetic_floor(d, floor, tail, note)
     last = float(energies[-1])
     variational_bar = BAR_FACTOR * tail + floor
     extrapolated_bar = tail + floor
@@ -167,17 +180,10 @@ def estimate_nested_tail(energies: Sequence[float], numerical_error: float = 0.0
         reliable = False
         note = "energies do not decrease with N (numerical noise or non-nested bases)"
     ratios = [diffs[k] / diffs[k - 1] for k in (1, 2) if diffs[k - 1] > 0]
-    q = max(ratios) if ratios else MAX_RATIO
-    if not 0 < q < MAX_RATIO:
-        if not note:
-            note = f"ratio of successive differences {q:.2f} is not well below 1; tail capped"
-        reliable = reliable and 0 < q < 1
-        q = MAX_RATIO
+    q, reliable, note = _capped_ratio(ratios, reliable, note)
     d = max(diffs[-1], 0.0)
     tail = d * q / (1.0 - q)
-    if d <= 2 * floor:
-        note = note or "differences at the level of the arithmetic error: converged to it"
-        tail = max(tail, floor)
+    tail, note = _at_arithmetic_floor(d, floor, tail, note)
     last = float(energies[-1])
     return TailEstimate(tail, q, last - tail, NESTED_BAR_FACTOR * tail + floor,
                         (NESTED_BAR_FACTOR - 1.0) * tail + floor, reliable, note)
