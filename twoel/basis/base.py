@@ -71,6 +71,10 @@ class Support:
         Basis size on which ``optimize=True`` tunes the parameters (``None``: the solve size).
     tuning_max_size : int, optional
         Largest tuning size.
+    default_for : tuple of str, optional
+        States (canonical labels) for which the family is twoel's choice when none is given;
+        ``None``: every state it covers.  A family with one length scale covers excited S
+        states but describes them poorly, so it declares the ground state only.
     """
 
     L_values: tuple[int, ...] = (0,)
@@ -80,6 +84,11 @@ class Support:
     sizes: Mapping[int, int] = field(default_factory=dict)
     tuning_size: int | None = None
     tuning_max_size: int | None = None
+    default_for: tuple[str, ...] | None = None
+
+    def is_default_for(self, state: State) -> bool:
+        """Whether the family is the right default for ``state`` (see :attr:`default_for`)."""
+        return self.covers(state) and (self.default_for is None or state.label in self.default_for)
 
     def covers(self, state: State) -> bool:
         """Whether ``state`` is among the states declared here."""

@@ -103,7 +103,7 @@ class HylleraasFamily(TrialFamily):
     option_names = ("exponents", "terms", "coordinates")
     #: S states in float64 with an error bar from the nested ω - 2, ω - 1, ω; ω = 8 when twoel
     #: chooses the size for a state
-    support = Support(L_values=(0,), sizes={0: 8}, error_bar_L=(0,))
+    support = Support(L_values=(0,), sizes={0: 8}, error_bar_L=(0,), default_for=("1^1S",))
 
     def nested_sizes(self, size: int) -> list[int]:
         """``ω - 2`` and ``ω - 1``: with the same exponents their terms are subsets of ω's."""

@@ -140,8 +140,9 @@ class FamilyHelp(str):
     family registry (which imports the numerical core) is not loaded while the parser is built.
     """
 
-    def __new__(cls, template: str = "trial-function family: {names} (default: hylleraas for S "
-                                     "states, otherwise the first family that supports the state)"):
+    def __new__(cls, template: str = "trial-function family: {names} (default: hylleraas for the "
+                                     "ground state, otherwise the most capable family that supports "
+                                     "the state)"):
         text = super().__new__(cls, template)
         text.template = template
         return text
@@ -177,15 +178,15 @@ def add_basis_arguments(parser: argparse.ArgumentParser, default_size: int | Non
 
 
 def resolved_family(args: argparse.Namespace) -> str:
-    """The family named by ``--family``; without it hylleraas for S states (the documented
-    default) and otherwise the family that :func:`twoel.basis.family_for` picks for the state."""
+    """The family named by ``--family``; without it the front door's choice for the state
+    (:func:`twoel.solver.pipeline.choose_family`: hylleraas for the ground state, otherwise the
+    most capable family that declares the state)."""
     if args.family is not None:
         return args.family
-    from twoel.basis import family_for
+    from twoel.solver.pipeline import choose_family
     from twoel.system import State
 
-    state = State.parse(args.state)
-    return "hylleraas" if state.L == 0 else family_for(state).name
+    return choose_family(State.parse(args.state))[0].name
 
 
 def basis_keywords(args: argparse.Namespace) -> dict:

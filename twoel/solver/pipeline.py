@@ -105,15 +105,15 @@ def choose_family(state: State, family=None, size: int | None = None, ion: Ion |
     """The family and size of a solve (the front door's choice).
 
     ``family`` given: that family, ``size`` as given (``None``: its default size).  ``family``
-    ``None``: :data:`DEFAULT_FAMILY` with its default size when it can represent ``state``
-    (unchanged behaviour), else the most capable family whose declaration covers the state
+    ``None``: :data:`DEFAULT_FAMILY` with its default size when it declares itself the default
+    for ``state`` (:meth:`~twoel.basis.base.Support.is_default_for`: the ground state), else the most capable family whose declaration covers the state
     (:func:`twoel.basis.family_for`) with the size it gives for the state
     (:meth:`~twoel.basis.base.TrialFamily.size_for`), unless ``size`` is given.
     """
     if family is not None:
         return get_family(family), size
     default = get_family(DEFAULT_FAMILY)
-    if default.supports().covers(state):
+    if default.supports().is_default_for(state):
         return default, size
     fam = family_for(state)
     return fam, fam.size_for(ion or Ion(2), state) if size is None else size
