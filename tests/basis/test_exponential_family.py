@@ -96,11 +96,11 @@ def test_family_basis_contract():
 
 
 def test_family_declares_what_it_supports():
-    """The solver reads the declaration: S states refine, P states stay in float64, and G
+    """The solver reads the declaration: S, P, D and F states refine beyond float64, and G
     states (L = 4, beyond the generated term lists) are refused."""
     fam = get_family("exponential")
-    s, p = State.parse("1^1S"), State.parse("2^1P")
-    assert "extended" in fam.precision_paths(s) and "extended" not in fam.precision_paths(p)
+    for label in ("1^1S", "2^1P", "3^3D", "4^1F"):
+        assert fam.precision_paths(State.parse(label)) == ("float64", "mixed", "extended")
     with pytest.raises(UnsupportedError):
         fam.check_state(State.parse("5^1G"))
 
@@ -108,9 +108,9 @@ def test_family_declares_what_it_supports():
 @pytest.mark.parametrize("state, exact", [
     # Drake, Springer Handbook of Atomic, Molecular and Optical Physics (2006), ch. 11 (from memory)
     ("2^3P", -2.133164190779283205), ("2^1P", -2.123843086498101359)])
-def test_float64_p_state_error_bar_covers_the_published_value(state, exact):
-    """A float64 P solve states a bar (nested bases plus the measured cost of the dropped
-    directions) that covers the true error without being absurdly loose."""
+def test_p_state_error_bar_covers_the_published_value(state, exact):
+    """A (refined) P solve states a bar from the nested bases that covers the true error
+    without being absurdly loose, and prints no digit below it."""
     import warnings
 
     with warnings.catch_warnings():
@@ -120,7 +120,7 @@ def test_float64_p_state_error_bar_covers_the_published_value(state, exact):
     assert 0 < error <= r.error_bar_hartree <= 30 * error
     assert r.reliable is True
     digits = r.energy_hartree_text.split(".")[1]
-    assert len(digits) <= 9  # no digits below the ~1e-8 bar
+    assert len(digits) <= -math.floor(math.log10(r.error_bar_hartree))  # no digit below the bar
 
 
 def test_every_box_file_is_read(tmp_path, monkeypatch):

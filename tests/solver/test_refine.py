@@ -179,8 +179,6 @@ def test_clear_errors_for_unservable_requests():
 
     with pytest.raises(ResourceError, match="extended precision is limited"):
         twoel.solve(2, family="exponential", size=2600, precision="extended")
-    assert main(["energy", "--Z", "2", "--family", "exponential", "--state", "2^1P",
-                 "--precision", "extended"]) == 2  # extended precision serves S states only
     assert main(["energy", "--Z", "2", "--family", "exponential", "--digits", "20"]) == 2
 
 

@@ -190,11 +190,12 @@ class ExponentialFamily(TrialFamily):
     optimize_by_default = False
     option_names = ()
     supported_L = (0, 1, 2, 3)
-    #: S states: float64 with mixed refinement or extended precision, and an error bar; P, D
-    #: and F states: float64 with the error bar.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
+    #: every state (S, P, D, F): float64 with mixed refinement or extended precision, and an
+    #: error bar.  Sizes when twoel chooses: 600 (or the stored ``recommended_size``);
     #: ``--optimize`` tunes S boxes at the stored set's size (else 120), at most 400 (the float64
     #: energy it minimizes stops seeing the basis near 1e-10 Eh, and each evaluation is O(N³))
-    support = Support(L_values=(0, 1, 2, 3), precision={0: ("float64", "mixed", "extended")},
+    support = Support(L_values=(0, 1, 2, 3),
+                      precision={L: ("float64", "mixed", "extended") for L in (0, 1, 2, 3)},
                       error_bar_L=(0, 1, 2, 3), sizes={0: 600, 1: 600, 2: 600, 3: 600},
                       tuning_size=120,
                       tuning_max_size=400)

@@ -50,7 +50,7 @@ def add_parser(subparsers) -> None:
     p.add_argument("--size", type=positive_int, default=None,
                    help="basis size for every level (default: the family's size for the level)")
     p.add_argument("--precision", choices=("float64", "extended"), default="float64",
-                   help="float64 (default) or extended (exponential family, S states only)")
+                   help="float64 (default) or extended (exponential family, any state)")
     p.add_argument("--fit-lowest-n", type=_bounded(1, MAX_N, "--fit-lowest-n"), default=DEFAULT_FIT_LOWEST_N,
                    help=f"lowest n taken into the Ritz fits (default {DEFAULT_FIT_LOWEST_N}: the "
                         "ground state is no Rydberg level)")

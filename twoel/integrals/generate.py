@@ -7,8 +7,8 @@
     identical, 1 with a one-line message naming the stale (or missing) files otherwise.
 
 ``TARGET`` is a key of :data:`TARGETS` (``kinetic_terms``, ``zero_power_kernels``,
-``state_terms``).  ``--folder DIR`` points at another copy of the generated files (default: the
-package folder).  Bad input (unknown target, missing folder) exits 2 with one line on stderr.
+``state_terms``, ``angular_zero_power``).  ``--folder DIR`` points at another copy of the
+generated files (default: the package folder).  Bad input (unknown target, missing folder) exits 2 with one line on stderr.
 """
 
 from __future__ import annotations
@@ -20,7 +20,7 @@ from pathlib import Path
 
 from twoel.errors import InputError, TwoelError
 from twoel.integrals.symbolic import kinetic_source, zero_power_source
-from twoel.integrals.symbolic_states import generated_source
+from twoel.integrals.symbolic_states import generated_source, zero_power_angular_source
 from twoel.io import atomic_write_text
 
 GENERATED_FOLDER = Path(__file__).parent / "generated"
@@ -30,6 +30,7 @@ TARGETS = {
     "kinetic_terms": kinetic_source,
     "zero_power_kernels": zero_power_source,
     "state_terms": generated_source,
+    "angular_zero_power": zero_power_angular_source,
 }
 
 KINETIC_PATH = GENERATED_FOLDER / "kinetic_terms.py"

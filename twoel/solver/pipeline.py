@@ -26,7 +26,9 @@ from twoel.basis import family_for, get_family
 from twoel.basis.base import Parameter, TrialFamily
 from twoel.solver.eigen import DEFAULT_DROP_THRESHOLD, EigenSolution, solve_generalized
 from twoel.errors import AccuracyWarning, InputError, ResourceError, UnsupportedError
+from twoel.basis.angular import AngularBasis
 from twoel.basis.correlated import CorrelatedBasis
+from twoel.integrals import precise
 from twoel.basis.exponential_boxes import MIN_CHARGE
 from twoel.solver.memory import check_memory
 from twoel.solver.optimize import minimize_energy, virial_scale
@@ -531,7 +533,9 @@ def _assemble(plan: _Plan, solved: _Solved, record, kept_start, bar, elapsed) ->
 
 
 def _zero_power(basis) -> bool:
-    return isinstance(basis, CorrelatedBasis) and basis.contraction is None and not np.any(basis.powers)
+    """Uncontracted pure exponentials (any ``L``): the bases the refinements take."""
+    return isinstance(basis, (CorrelatedBasis, AngularBasis)) and basis.contraction is None \
+        and not np.any(basis.powers)
 
 
 def _target_error(refined, digits: int) -> float:
@@ -548,8 +552,9 @@ def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, d
     stage = stage or (lambda _text: None)
     if start is None:
         stage(f"mixed-precision step, N = {basis.size}")
+    angular = precise.angular_arguments(basis)
     mixed = start if start is not None else mixed_refine(basis.exponents, basis.sign, ion.Z, eig,
-                                                        state.root)
+                                                        state.root, angular=angular)
     if precision != "extended":
         return mixed
     condition_digits = starting_condition_digits(basis.size, eig.condition_number, eig.n_dropped,
@@ -559,7 +564,7 @@ def _refine(basis, ion: Ion, state: State, eig: EigenSolution, precision: str, d
           "inverse iteration)")
     extended = extended_refine(basis.exponents, basis.sign, ion.Z, mixed.energy_hartree, mixed.vector,
                                digits, float(condition_digits),
-                               gap=float(min(upper - mixed.energy_hartree, 1.0)))
+                               gap=float(min(upper - mixed.energy_hartree, 1.0)), angular=angular)
     # ⟨T⟩ of the mixed step's vector (double-double): the same state to far below the virial's digits
     return replace(extended, kinetic_hartree=mixed.kinetic_hartree)
 

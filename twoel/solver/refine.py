@@ -156,7 +156,7 @@ def _history(energies) -> tuple:
 
 
 def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
-                 steps: int = 1) -> RefinedEnergy:
+                 steps: int = 1, angular: dict | None = None) -> RefinedEnergy:
     """Double-double matrices, then inverse iteration at 128 bits from a float64 eigenpair.
 
     Parameters
@@ -179,11 +179,15 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
         reported bounds ~2e-17 Eh.  When ``Δ²/g`` exceeds ``1e-16 |E|`` (a poor float64 start,
         e.g. H⁻ with its small gap to the continuum) a second step is taken and its measured
         change reported instead.
+    angular : dict, optional
+        ``L`` and ``electron1_l`` of a basis of ``L >= 1``
+        (:func:`twoel.integrals.precise.angular_arguments`); none for S primitives.
     """
     from flint import ctx
 
+    angular = angular or {}
     t0 = time.perf_counter()
-    mats = precise.dd_matrices(exponents, sign)
+    mats = precise.dd_matrices(exponents, sign, **angular)
     H = precise.dd_hamiltonian(mats, Z)
     S = mats["overlap"]
     old = ctx.prec
@@ -206,7 +210,7 @@ def mixed_refine(exponents: np.ndarray, sign: int, Z: float, eig, root: int,
     exact_vector = _dd_vector(exact)
     norm_dd = dd_dot(exact_vector, dd_matvec(S, exact_vector))
     rounding = matrix_rounding_error(exponents, sign, Z, mats, float(last.mid()), exact_vector,
-                                     float(norm_dd.hi + norm_dd.lo))
+                                     float(norm_dd.hi + norm_dd.lo), angular=angular)
     floor = rounding["error_hartree"]
     history = _history(energies)
     change = abs(history[-2]) if len(history) >= 2 else _one_step_error(eig, root, last)
@@ -253,7 +257,8 @@ ROUNDING_SIGMAS = 3.0
 
 
 def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict, energy: float,
-                          x: DD, norm: float, samples: int = ROUNDING_SAMPLES, seed: int = 0) -> dict:
+                          x: DD, norm: float, samples: int = ROUNDING_SAMPLES, seed: int = 0,
+                          angular: dict | None = None) -> dict:
     r"""What the rounding of the double-double matrices does to the refined energy (Eh), measured.
 
     To first order, errors ``δH, δS`` of the matrix entries move the Rayleigh quotient of the
@@ -289,6 +294,8 @@ def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict
         ``xᵀSx`` contracted in double-double.
     samples, seed : int
         Entries recomputed exactly, and the seed of their choice.
+    angular : dict, optional
+        ``L`` and ``electron1_l`` of a basis of ``L >= 1`` (as for :func:`mixed_refine`).
 
     Returns
     -------
@@ -310,7 +317,7 @@ def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict
     rng = np.random.default_rng(seed)
     flat = rng.choice(weight.size, size=samples, p=(weight / total).ravel())
     rows, cols = np.divmod(flat, weight.shape[1])
-    e_h, e_s = _entry_errors(exponents, sign, Z, H, S, rows, cols)
+    e_h, e_s = _entry_errors(exponents, sign, Z, H, S, rows, cols, angular or {})
     r_h = math.sqrt(float(np.mean((e_h / m_h[rows, cols]) ** 2)))
     r_s = math.sqrt(float(np.mean((e_s / np.maximum(m_s[rows, cols], 1e-300)) ** 2)))
     variance = 2.0 * float(x2 @ ((r_h * m_h) ** 2 + (energy * r_s * m_s) ** 2) @ x2)
@@ -323,7 +330,7 @@ def matrix_rounding_error(exponents: np.ndarray, sign: int, Z: float, mats: dict
                       f"recomputed exactly) and the calibrated law {MATRIX_ERROR_FACTOR:g} u |E| / xᵀSx"}
 
 
-def _entry_errors(exponents, sign, Z, H: DD, S: DD, rows, cols):
+def _entry_errors(exponents, sign, Z, H: DD, S: DD, rows, cols, angular: dict):
     """Errors of the double-double ``H`` and ``S`` at the entries ``(rows, cols)`` against the
     exact (fixed-point, 200-bit) ones, times the double-double 16π² (a common factor of ``H``
     and ``S`` leaves every Rayleigh quotient unchanged, so its own rounding is left out)."""
@@ -331,7 +338,7 @@ def _entry_errors(exponents, sign, Z, H: DD, S: DD, rows, cols):
 
     from twoel.integrals.numbers import DOUBLE_DOUBLE
 
-    total, P = precise.fixed_point_entries(exponents, sign, 200, rows, cols)
+    total, P = precise.fixed_point_entries(exponents, sign, 200, rows, cols, **angular)
     factor = DOUBLE_DOUBLE.sixteen_pi_squared()
     e_h, e_s = [], []
     with mpmath.workdps(60):
@@ -389,7 +396,8 @@ def working_bits(digits: int, condition_digits: float) -> int:
 
 def extended_refine(exponents: np.ndarray, sign: int, Z: float, start_energy: float,
                     start_vector: np.ndarray, digits: int, condition_digits: float = 20.0,
-                    max_steps: int = 1, max_bits: int = 2048, gap: float | None = None) -> RefinedEnergy:
+                    max_steps: int = 1, max_bits: int = 2048, gap: float | None = None,
+                    angular: dict | None = None) -> RefinedEnergy:
     """Inverse iteration in arb at a working precision chosen for ``digits``.
 
     Parameters
@@ -413,6 +421,8 @@ def extended_refine(exponents: np.ndarray, sign: int, Z: float, start_energy: fl
     gap : float, optional
         Distance (Eh) to the next root of the same symmetry (default 0.1 Eh, conservative for
         the ground states).
+    angular : dict, optional
+        ``L`` and ``electron1_l`` of a basis of ``L >= 1`` (as for :func:`mixed_refine`).
     """
     from flint import arb, ctx
 
@@ -424,7 +434,7 @@ def extended_refine(exponents: np.ndarray, sign: int, Z: float, start_energy: fl
         while True:
             ctx.prec = bits
             t0 = time.perf_counter()
-            mats = precise.arb_matrices(exponents, sign, bits + 32)
+            mats = precise.arb_matrices(exponents, sign, bits + 32, **(angular or {}))
             H = mats["kinetic"] - mats["nuclear"] * arb(Z) + mats["repulsion"]
             S = mats["overlap"]
             t1 = time.perf_counter()

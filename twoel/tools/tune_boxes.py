@@ -15,7 +15,7 @@ For each ``(Z, state)`` (ground, excited S or P) the box edges, and with ``--sha
 fractions, are optimized on a log scale by :func:`twoel.solver.optimize.minimize_energy`
 (Nelder–Mead) at the basis size ``--size``, minimizing the variational energy of the requested
 root (float64, or with ``--objective mixed`` the refined energy of
-:func:`twoel.solver.refine.mixed_refine`, S states only).  The start is the stored set
+:func:`twoel.solver.refine.mixed_refine`, every L).  The start is the stored set
 (:func:`twoel.basis.exponential_boxes.box_set_for`: the stored set, else the nearest stored Z
 scaled, else the generic guess), or ``--from-state`` / ``--start FILE``.  Energies below the
 bare-nucleus bound ``-Z²`` are numerical collapse and rejected.
@@ -66,12 +66,11 @@ def box_energy(boxes, ion: Ion, state: State, size: int, objective: str = "float
     m = basis.matrices()
     eig = solve_generalized(m.hamiltonian(ion.Z), m.overlap)
     if objective == "mixed":
-        if state.L != 0:
-            raise InputError("--objective mixed is available for S states only")
+        from twoel.integrals.precise import angular_arguments
         from twoel.solver.refine import mixed_refine
 
         energy = float(mixed_refine(basis.exponents, state.exchange_sign, ion.Z, eig,
-                                    state.root).energy_hartree)
+                                    state.root, angular=angular_arguments(basis)).energy_hartree)
     else:
         energy = float(eig.values[state.root])
     if energy < -ion.Z**2:
