@@ -133,3 +133,19 @@ def test_helium_1600_float64_bar_is_flagged_and_covers():
     assert 0 < error <= r.error_bar_hartree
     assert r.reliable is False and "statistically" in r.provenance["error_bar"]["note"]
     assert math.isfinite(r.error_bar_hartree)
+
+
+def test_a_fast_ratio_that_jumps_up_is_floored_and_flagged():
+    """Steps 6e-6, 2.3e-8, 5.9e-10 (ratios 0.004, 0.026: the nested He 5¹P sequence at
+    N = 212..600) slow down sharply; the geometric tail of the last ratio would be ~1.5e-11 Eh
+    while the remaining error was 1.8e-10 Eh.  The ratio is floored at 0.1 and the bar flagged."""
+    from twoel.solver.error_bar import SLOWING_FLOOR
+
+    energies = [-2.0, -2.0 - 6.05e-6, -2.0 - 6.05e-6 - 2.29e-8, -2.0 - 6.05e-6 - 2.29e-8 - 5.86e-10]
+    est = estimate_nested_tail(energies)
+    assert est.reliable is False and "slowing" in est.note
+    assert est.ratio == SLOWING_FLOOR
+    assert est.variational_bar_hartree > 1.8e-10
+    # a steady fast sequence keeps its measured ratio and stays reliable
+    steady = estimate_nested_tail([-2.0, -2.0 - 1e-6, -2.0 - 1.02e-6, -2.0 - 1.0204e-6])
+    assert steady.reliable and abs(steady.ratio - 0.02) < 1e-6
