@@ -12,15 +12,15 @@ Default basis
     nucleus) solved at the overlap drop threshold :data:`GROUND_DROP_THRESHOLD`; for ``2¹S``,
     ``2³S`` and H⁻ the two-scale basis of the corrections
     (:func:`twoel.corrections.spectrum.preset_basis`, quality ``"default"``).  The nested
-    predecessors lower every shell's ``ω`` by 1 and by 2.  For He 1¹S (704 functions) the
-    default run gives ``⟨1/r1²⟩`` and the regularized δ(r1) to ~3e-9 relative and δ(r12) to a few
-    1e-8 (measured against Drake 2006), where the default exponential basis (N = 600) is
-    ~1e-6 off: the float64 eigenvector of a large exponential basis is limited by the
-    conditioning of its overlap (it reaches the energy only through the refined vector, which
-    the δ operators cannot use: they need ``I(-2, b, c)`` integrals that exist in float64 only).
-    The float64 Hylleraas eigenvector itself is the limit of these three values: they move by
-    ~1e-9 (δ(r12): ~5e-8) relative when the drop threshold changes tenfold (the floor of the
-    bars).
+    predecessors lower every shell's ``ω`` by 1 and by 2.  For He 1¹S (749 functions) the
+    default run gives ``⟨1/r1²⟩``, the regularized δ(r1) and the regularized δ(r12) to better
+    than 1e-8 relative (measured against Drake 2006: +4e-10, +7e-10, -6e-9), where the default
+    exponential basis (N = 600) is ~1e-6 off: the float64 eigenvector of a large exponential
+    basis is limited by the conditioning of its overlap (it reaches the energy only through the
+    refined vector, which the δ operators cannot use: they need ``I(-2, b, c)`` integrals that
+    exist in float64 only).  The float64 Hylleraas eigenvector is the other limit of these
+    values: they move by up to ~3e-9 relative when the drop threshold changes tenfold (the floor
+    of the bars).
     With ``size`` or ``family`` given (and for every other state): that family via
     :func:`twoel.analysis.transitions.solve_state`, sizes ``N/2, N/√2, N``.
 
@@ -83,18 +83,25 @@ class NestedProperties:
 #: the three-shell two-scale Hylleraas basis of the default 1¹S run (Z >= 1.5): per shell
 #: ``(ω, α/Z, β/Z, γ/Z)`` of ``r1^i r2^j r12^k e^{-α r1 - β r2 - γ r12}``, i + j + k <= ω.
 #: Chosen for the expectation values rather than for the energy: the inner shell (α, β ~ 6Z)
-#: carries both electrons near the nucleus, which ``⟨1/r1²⟩`` and ``⟨δ³(r1)⟩`` weight.
-#: Measured for He (704 functions, against Drake 2006): ``⟨1/r1²⟩`` and the regularized
-#: ``⟨δ³(r1)⟩`` +1.8e-9 and +2.1e-9 relative (-0.3e-9 to +2.5e-9 at drop thresholds 1e-13 to
-#: 1e-16), the regularized ``⟨δ³(r12)⟩`` -1.6e-8 (-1.6e-8 to -2.8e-8: float64 scatter), energy
-#: 4e-12 Eh above the exact value; the two-shell preset of the corrections gives 1.3e-8,
-#: 1.4e-8, -7e-9 and 3e-11 Eh.  (An r12 exponent e^{+0.15 Z r12} on the middle shell moved
-#: δ(r12) to -2e-9 at 1e-14 but -3e-8 to -7e-8 at the other thresholds: no gain.)
-GROUND_SHELLS = ((12, 0.9, 1.1, 0.0), (8, 2.25, 3.0, 0.0), (6, 6.0, 7.0, 0.0))
+#: carries both electrons near the nucleus, which ``⟨1/r1²⟩`` and ``⟨δ³(r1)⟩`` weight, and the
+#: middle and inner shells carry the electron-electron coalescence that the regularized
+#: ``⟨δ³(r12)⟩`` weights.  Measured for He against Drake 2006 (relative; drop thresholds
+#: 1e-14 / 1e-15 / 1e-16): this basis (749 functions) ``⟨1/r1²⟩`` -8e-10 / +4e-10 / +7e-10,
+#: ``⟨δ³(r1)⟩`` -6e-10 / +7e-10 / +1.0e-9, ``⟨δ³(r12)⟩`` -9.3e-9 / -6.4e-9 / -5.1e-9, energy
+#: 1.5e-12 / 3.8e-13 / 1.3e-13 Eh above the exact value.  The earlier ω = (12, 8, 6) (704
+#: functions) gave ``⟨δ³(r12)⟩`` -1.6e-8 / -2.3e-8 / -2.7e-8: a truncation error of the middle
+#: and inner shells (at 1e-16, ω + 1 on the middle shell moved it by +1.1e-8, on the inner
+#: shell by +1.2e-8, on the outer shell by +1e-9), on top of the float64 scatter of the
+#: 1e-14 solves (±1e-8 between neighbouring bases).  The outer shell at ω = 11 instead of 12
+#: changes none of the three by more than ~2e-9.  (An r12 exponent e^{+0.15 Z r12} on the
+#: middle shell of the earlier basis moved δ(r12) to -2e-9 at 1e-14 but -3e-8 to -7e-8 at the
+#: other thresholds: no gain.)
+GROUND_SHELLS = ((11, 0.9, 1.1, 0.0), (9, 2.25, 3.0, 0.0), (8, 6.0, 7.0, 0.0))
 #: relative overlap drop threshold of the default 1¹S solves: the three-shell basis keeps
-#: directions down to 1e-14 (the energy still falls from 1e-13 to 1e-14, measured); the floor
-#: is the change at ten times this threshold
-GROUND_DROP_THRESHOLD = 1e-14
+#: directions down to 1e-15 (the energy still falls from 1e-14 to 1e-15, and the δ(r12) of
+#: the 1e-15 and 1e-16 solves agree to 1.3e-9 relative where 1e-14 is 3e-9 off, measured);
+#: the floor is the change at ten times this threshold
+GROUND_DROP_THRESHOLD = 1e-15
 
 
 def _shell_basis(shells, Z: float, sign: int, reduction: int):
