@@ -37,7 +37,7 @@ import numpy as np
 
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis
-from twoel.integrals.pairs import basis_kind, operator_matrices
+from twoel.integrals.pairs import angular_momentum, operator_matrices
 from twoel.integrals.hamiltonian import HAMILTONIAN
 import twoel.properties.operators as op
 from twoel.results import EnergyResult, Result, Wavefunction
@@ -219,7 +219,7 @@ def _correlated_state(obj) -> tuple[object, np.ndarray, str | None]:
     basis, c, state = _unpack(obj)
     if not hasattr(basis, "exponents") or not hasattr(basis, "powers"):
         raise UnsupportedError(f"expectation values need a correlated basis, not {type(basis).__name__}")
-    basis_kind(basis)  # rejects L > 1 before any integral
+    angular_momentum(basis)  # rejects L beyond the generated term lists before any integral
     return basis, c, state
 
 
@@ -246,11 +246,11 @@ BLOCK_PRIMITIVES = 120
 
 
 def _sub_basis(basis, index: np.ndarray):
-    """The primitives ``index`` of an uncontracted S or P basis as a basis of their own."""
-    from twoel.basis.p_basis import PBasis
+    """The primitives ``index`` of an uncontracted basis (any ``L``) as a basis of their own."""
+    from twoel.basis.angular import AngularBasis
 
-    if isinstance(basis, PBasis):
-        return PBasis(basis.exponents[index], sign=basis.sign, powers=basis.powers[index])
+    if isinstance(basis, AngularBasis):
+        return basis.subset(index)
     return CorrelatedBasis(basis.powers[index], basis.exponents[index], sign=basis.sign)
 
 
@@ -312,7 +312,8 @@ def _operator_averages(basis, C: np.ndarray, Z: float, repulsion, notes: list):
         extra.pop("p1sq_p2sq")
         mats = _matrices_in_groups(basis, ops)
         p4_ok = False
-        notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers)")
+        notes.append("⟨p1⁴⟩ needs integrals this basis does not support (non-zero powers, or the "
+                     "∇1²∇2² integrand, generated for L <= 1 only)")
     values = {name: _quadratic(C, m, C) for name, m in mats.items()}
     heavy = {name: spec for name, spec in extra.items() if name not in mats}
     values.update(_blocked_values(basis, _primitive_coefficients(basis, C), heavy))

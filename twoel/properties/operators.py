@@ -51,7 +51,7 @@ import numpy as np
 from twoel.errors import InputError, UnsupportedError
 from twoel.basis.correlated import CorrelatedBasis, build_matrices
 from twoel.integrals.closed_forms import radial_integral
-from twoel.integrals.pairs import UNIT, basis_kind, contract, operator_matrices
+from twoel.integrals.pairs import UNIT, angular_momentum, contract, operator_matrices
 from twoel.results import Result
 
 #: symmetric multiplicative operators as monomials (½ (O(1) + O(2)) for one-electron ones)
@@ -120,38 +120,47 @@ def _radial(n: np.ndarray, lam: np.ndarray) -> np.ndarray:
 
 
 def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
-    """Primitive matrices of the direct δ and of the cusp numerators, S or P basis.
+    """Primitive matrices of the direct δ and of the cusp numerators, basis of any ``L``.
 
     Returns ``"delta_r1"`` (``½(δ³(r1) + δ³(r2))``), ``"delta_r12"``, ``"cusp_r1"``
     (``½`` the sum of ``δ³(r_i) ∂/∂r_i``) and ``"cusp_r12"`` (``δ³(r12) ∂/∂r12``), each
-    ``⟨χ_p|O|(1 ± P12)χ_q⟩`` of shape (P, P) (the derivative acts on the ket and is spherically
-    averaged; for P kets the derivative of the ``z`` factor averages to zero at the point).
-    At ``r_i = 0`` the remaining integral is one radial closed form in the other two
-    coordinates, which coincide there.  ``cusps=False`` leaves out the cusp numerators.
+    ``⟨χ_p|O|(1 ± P12)χ_q⟩`` of shape (P, P) (the derivative acts on the ket's scalar part and is
+    spherically averaged).  At ``r_i = 0`` the remaining integral is one radial closed form in
+    the other two coordinates, which coincide there.  ``cusps=False`` leaves out the cusp
+    numerators.
+
+    Angular factors of ``L >= 1`` (:class:`twoel.basis.angular.AngularBasis`): a primitive
+    ``(ε·r1)^l (ε·r2)^(L-l)`` vanishes at ``r_i = 0`` unless its power on electron ``i`` is
+    zero; where bra and ket both survive, and at ``r1 = r2 = r``, the product of the angular
+    factors is ``(ε*·r)^L (ε·r)^L``, whose orientation average is ``L!/(2L+1)!! r^{2L}``
+    (``1/3`` for P, the ``z1 z1`` average; ``2/15`` for D).  The derivatives of the angular
+    factors average to zero at the point.
     """
-    kind = basis_kind(basis)
+    L = angular_momentum(basis)
     P, E = basis.powers, basis.exponents
     n_p = P.shape[0]
+    l1 = np.zeros(n_p, dtype=np.int64) if L == 0 else np.asarray(basis.electron1_l, dtype=np.int64)
+    angular = math.factorial(L) / _double_factorial(2 * L + 1)
+    extra = 2 * L
     names = ("delta_r1", "delta_r12") + (("cusp_r1", "cusp_r12") if cusps else ())
     out = {name: np.zeros((n_p, n_p)) for name in names}
     bp, be = P[:, None, :], E[:, None, :]
+    bra_powers = (l1[:, None], (L - l1)[:, None])  # angular power on electron 1, 2 (bra)
     for exchanged, weight in ((False, 1.0), (True, float(basis.sign))):
         kp, ke = (P[:, [1, 0, 2]], E[:, [1, 0, 2]]) if exchanged else (P, E)
+        ket_l1 = (L - l1) if exchanged else l1
+        ket_powers = (ket_l1[None, :], (L - ket_l1)[None, :])
         tp, te = bp + kp[None], be + ke[None]
         for name, (index, rest) in _POINTS.items():
-            if kind == "P":
-                # bra z1 vanishes at r1 = 0; the cross ket z2 vanishes at r2 = 0;
-                # z1 z1 (same) and z1 z2 (cross, at r1 = r2) average to r²/3 where nonzero
-                if name == "r1" or (name == "r2" and exchanged):
-                    continue
-                angular, extra = 1.0 / 3.0, 2
-            else:
-                angular, extra = 1.0, 0
+            survives = np.ones((n_p, n_p), dtype=bool) if name == "r12" else \
+                (bra_powers[index] == 0) & (ket_powers[index] == 0)
+            if not np.any(survives):
+                continue
             share = 1.0 if name == "r12" else 0.5
             target = "r12" if name == "r12" else "r1"
             n = tp[..., rest[0]] + tp[..., rest[1]] + extra
             lam = te[..., rest[0]] + te[..., rest[1]]
-            mask = tp[..., index] == 0
+            mask = (tp[..., index] == 0) & survives
             vals = np.zeros((n_p, n_p))
             vals[mask] = angular * _radial(n[mask], lam[mask])
             out[f"delta_{target}"] += share * weight * vals
@@ -160,11 +169,15 @@ def coalescence_matrices(basis, cusps: bool = True) -> dict[str, np.ndarray]:
             ket_i = np.broadcast_to(kp[None, :, index], mask.shape)
             slope = np.where(ket_i == 0, -np.broadcast_to(ke[None, :, index], mask.shape),
                              np.where(ket_i == 1, 1.0, 0.0))
-            ok = (np.broadcast_to(bp[..., index], mask.shape) == 0) & (ket_i <= 1)
+            ok = (np.broadcast_to(bp[..., index], mask.shape) == 0) & (ket_i <= 1) & survives
             vals = np.zeros((n_p, n_p))
             vals[ok] = slope[ok] * (angular * _radial(n[ok], lam[ok]))
             out[f"cusp_{target}"] += share * weight * vals
     return out
+
+
+def _double_factorial(n: int) -> int:
+    return math.prod(range(n, 0, -2))
 
 
 @dataclass(frozen=True, repr=False)
