@@ -18,22 +18,10 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-import mpmath  # noqa: E402
-
 import twoel  # noqa: E402
 
 STATES = ["2^1P", "2^3P", "3^1P", "3^3P", "4^1P", "4^3P", "5^1P", "3^1D", "3^3D", "4^1D", "4^3D",
           "5^1D", "5^3D"]
-
-
-def agreeing_digits(text: str, reference: str) -> int:
-    """Significant digits of ``text`` that agree with ``reference`` when both are rounded."""
-    with mpmath.workdps(40):
-        value, exact = mpmath.mpf(text), mpmath.mpf(reference)
-        n = 0
-        while n < 30 and mpmath.nstr(value, n + 1) == mpmath.nstr(exact, n + 1):
-            n += 1
-        return n
 
 
 def main(argv=None) -> None:
@@ -54,7 +42,7 @@ def main(argv=None) -> None:
             bar = r.error_bar_hartree
             covered = "" if diff is None or bar is None else ("yes" if abs(diff) <= bar else "NO")
             ratio = "" if not diff or bar is None else f"{bar / abs(diff):7.1f}"
-            digits = "" if r.reference is None else agreeing_digits(r.energy_full_text, r.reference.value_text)
+            digits = "" if r.reference is None else r.agreeing_digits
             print(f"{label:6s} {r.size:5d} {r.energy_full_text[:24]:>24s} {bar or float('nan'):9.1e} "
                   f"{'' if diff is None else format(diff, '10.2e'):>10s} {ratio:>7s} {covered:>7s} "
                   f"{digits:>6} {wall:7.1f} {cpu:7.1f}", flush=True)

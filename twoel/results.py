@@ -223,9 +223,14 @@ class EnergyResult(Result):
 
     @property
     def agreeing_digits(self) -> int | None:
+        """Significant digits agreeing with the reference, from the full decimal texts (not
+        capped by float64: ``floor(-log10(|E - E_ref| / |E_ref|))``)."""
         if self.reference is None:
             return None
-        return agreeing_digits(self.energy_hartree, self.reference.value)
+        diff = abs(text_difference(self.energy_full_text, self.reference.value_text))
+        if diff == 0:
+            return agreeing_digits(self.energy_hartree, self.reference.value)
+        return max(0, int(math.floor(-math.log10(diff / abs(self.reference.value)))))
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary (the ``twoel energy --json`` record)."""

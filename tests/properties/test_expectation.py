@@ -152,7 +152,7 @@ def test_properties_cli_json(capsys):
     """2³P through the command: virial ratio 2 (exact for the optimized state), Kato's
     electron-nucleus cusp -Z (T. Kato, Commun. Pure Appl. Math. 10, 151 (1957)); a triplet has
     no electron-electron cusp (written null in standard JSON)."""
-    assert main(["properties", "--Z", "2", "--state", "2^3P", "--size", "80", "--json"]) == 0
+    assert main(["properties", "--Z", "2", "--state", "2^3P", "--size", "300", "--json"]) == 0
     data = json.loads(capsys.readouterr().out)
     assert data["state"] == "2^3P"
     ev = data["expectation_values"]

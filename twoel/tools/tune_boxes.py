@@ -92,6 +92,10 @@ def _apply(start: stored.BoxSet, values: dict) -> stored.BoxSet:
     result = start.with_values(values)
     boxes = tuple(replace(b, fraction=float(values.get(f"box{k}_fraction", b.fraction)))
                   for k, b in enumerate(result.boxes, start=1))
+    # the loader normalizes the shares of the usual boxes; store them normalized (sum 1)
+    total = sum(b.fraction for b in boxes if b.from_size == 0)
+    if total > 0:
+        boxes = tuple(replace(b, fraction=b.fraction / total) if b.from_size == 0 else b for b in boxes)
     return replace(result, boxes=boxes)
 
 
