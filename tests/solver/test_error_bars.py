@@ -169,3 +169,24 @@ def test_a_fast_ratio_that_rises_is_extrapolated_one_step():
     q1, q2 = d[1] / d[0], d[2] / d[1]
     assert est.ratio == pytest.approx(q2 * (q2 / q1) ** 0.5, rel=1e-6)
     assert est.variational_bar_hartree > 1.25e-9 and est.reliable and "slowing" in est.note
+
+
+def test_a_basis_tuned_inside_the_nested_sizes_keeps_the_ratio_floor():
+    """He 4³P with boxes tuned at N = 500 on the refined energy, solved at N = 600 (nested
+    212..600): steps 3.2e-8, 5.3e-10, 1.4e-12 (ratios 0.017, 0.003) against a remaining error of
+    6.1e-13 Eh.  With the tuning size inside the nested range the ratio is at least 1/3."""
+    from twoel.solver.error_bar import MIN_RATIO, nested_error_bar
+
+    class Energy:
+        def __init__(self, value):
+            self.text, self.numerical_error_hartree, self.arithmetic = repr(value), 0.0, {}
+
+    d = (3.206e-8, 5.305e-10, 1.436e-12)
+    values = {212: -2.0323243, 300: -2.0323243 - d[0], 424: -2.0323243 - d[0] - d[1]}
+    last = Energy(values[424] - d[2])
+    plain = nested_error_bar(lambda n: Energy(values[n]), 600, last, [212, 300, 424])
+    guarded = nested_error_bar(lambda n: Energy(values[n]), 600, last, [212, 300, 424], tuned_at=500)
+    assert plain["error_bar_hartree"] < 6.1e-13 <= guarded["error_bar_hartree"]
+    assert guarded["ratio"] == pytest.approx(MIN_RATIO) and "tuned at N = 500" in guarded["note"]
+    outside = nested_error_bar(lambda n: Energy(values[n]), 600, last, [212, 300, 424], tuned_at=200)
+    assert outside["error_bar_hartree"] == plain["error_bar_hartree"]

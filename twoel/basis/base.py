@@ -132,6 +132,11 @@ class TrialFamily(ABC):
         """Precision paths (:data:`PRECISION_PATHS`) the family offers for ``state``."""
         return self.supports().precision_paths(state)
 
+    def tuned_at(self, ion: Ion, state: State) -> int | None:
+        """Basis size at which the stored parameters for ``(ion, state)`` were optimized, if
+        known (the error bar treats a nested sequence through that size with care)."""
+        return None
+
     def gives_error_bar(self, state: State) -> bool:
         """Whether the family gives a basis-truncation error bar for ``state``."""
         return state.L in self.supports().error_bar_L

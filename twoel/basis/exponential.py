@@ -213,6 +213,15 @@ class ExponentialFamily(TrialFamily):
         """The stored set's ``recommended_size``, else 600 functions."""
         return stored.recommended_size(ion, state) or super().size_for(ion, state)
 
+    def tuned_at(self, ion: Ion, state: State) -> int | None:
+        """The stored set's ``optimized_size`` when it was tuned on the refined energy
+        (``"objective": "mixed"``): such a set is shaped for that size, and a nested sequence
+        through it converges faster there than beyond (only the exact ``(Z, state)`` stored)."""
+        box_set = stored.box_set_for(ion, state)
+        if box_set.origin != "stored" or box_set.extra.get("objective") != "mixed":
+            return None
+        return box_set.optimized_size
+
     def tuning_size(self, ion: Ion, state: State, size: int | None) -> int | None:
         """S states: the stored set's ``optimized_size`` (else 120), at most 400; P: ``size``."""
         if state.L != 0 or size is None:

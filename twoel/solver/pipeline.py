@@ -337,7 +337,8 @@ def _error_bar_step(plan: _Plan, solved: _Solved, error_bar, stage) -> dict | No
             aux = _refine(b, plan.ion, plan.state, e, "extended", plan.digits, start=aux, stage=stage)
         return aux
 
-    return nested_error_bar(refined_energy, plan.size, solved.refined, plan.fam.nested_sizes(plan.size))
+    return nested_error_bar(refined_energy, plan.size, solved.refined, plan.fam.nested_sizes(plan.size),
+                            tuned_at=plan.fam.tuned_at(plan.ion, plan.state))
 
 
 def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
@@ -352,7 +353,8 @@ def _float64_error_bar(plan: _Plan, solved: _Solved, stage) -> dict:
 
     final = float64_energy(solved.matrices.hamiltonian(Z), solved.matrices.overlap, root,
                            plan.drop_threshold, solved.eig)
-    bar = nested_error_bar(energy_at, plan.size, final, plan.fam.nested_sizes(plan.size))
+    bar = nested_error_bar(energy_at, plan.size, final, plan.fam.nested_sizes(plan.size),
+                           tuned_at=plan.fam.tuned_at(plan.ion, plan.state))
     bar["method"] = (f"geometric tail of the nested bases {bar['sizes']} (x{bar['bar_factor']:g}); "
                      "float64 energies, each with the rise of the energy when the drop threshold is raised 10x")
     bar["float64_error_hartree"] = final.numerical_error_hartree

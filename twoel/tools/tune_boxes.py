@@ -151,7 +151,7 @@ def _finish(start, values, energy, ion, state, size, objective, evaluations) -> 
               f"at N = {size}, start: {start.origin}; twoel {__version__}")
     return replace(_apply(start, values), Z=ion.Z, state=state.label, optimized_size=size,
                    energy_hartree=energy, method=method, date=datetime.date.today().isoformat(),
-                   origin="stored")
+                   origin="stored", extra={**start.extra, "objective": objective})
 
 
 # --------------------------------------------------------------------------- box files
