@@ -62,6 +62,8 @@ NESTED_BAR_FACTOR = 3.5
 #: flags the bar (calibrated on He 2¹P, 2³P, 2³S, 5¹P nested sequences of the exponential family)
 SLOWING_JUMP = 3.0
 SLOWING_SHARP = 4.0
+#: smallest rise of the ratio treated as slowing (below it the two ratios agree within noise)
+SLOWING_RISE = 1.5
 SLOWING_FLOOR = 0.1
 
 
@@ -192,7 +194,7 @@ def estimate_nested_tail(energies: Sequence[float], numerical_error: float = 0.0
         note = "energies do not decrease with N (numerical noise or non-nested bases)"
     ratios = [diffs[k] / diffs[k - 1] for k in (1, 2) if diffs[k - 1] > 0]
     q, reliable, note = _capped_ratio(ratios, reliable, note)
-    if len(ratios) == 2 and 0 < ratios[0] < ratios[1] and q < SLOWING_FLOOR:
+    if len(ratios) == 2 and 0 < ratios[0] and ratios[1] > SLOWING_RISE * ratios[0] and q < SLOWING_FLOOR:
         # a fast ratio that rises: the convergence is slowing, so the next ratio is taken to rise
         # by the square root of that factor again, or to SLOWING_FLOOR after a sharp rise (He 5¹P,
         # N = 600: ratios 0.004, 0.026 gave a tail 12 times below the true error; He 2³P, N = 200:
