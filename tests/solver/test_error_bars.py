@@ -188,5 +188,6 @@ def test_a_basis_tuned_inside_the_nested_sizes_keeps_the_ratio_floor():
     guarded = nested_error_bar(lambda n: Energy(values[n]), 600, last, [212, 300, 424], tuned_at=500)
     assert plain["error_bar_hartree"] < 6.1e-13 <= guarded["error_bar_hartree"]
     assert guarded["ratio"] == pytest.approx(MIN_RATIO) and "tuned at N = 500" in guarded["note"]
+    assert guarded["reliable"] is False
     outside = nested_error_bar(lambda n: Energy(values[n]), 600, last, [212, 300, 424], tuned_at=200)
     assert outside["error_bar_hartree"] == plain["error_bar_hartree"]

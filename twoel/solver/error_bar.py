@@ -302,10 +302,11 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
         The smaller nested sizes.
     tuned_at : int, optional
         Size at which the basis parameters were optimized.  If it lies inside the nested range
-        (at or above the smallest size, below ``size``), the sequence converges faster up to
-        that size than beyond it (He 4³P, boxes tuned at N = 500: step ratios 0.017, 0.003 at
-        N = 212..600, bar 0.14 of the true error), so the ratio is taken as at least
-        :data:`MIN_RATIO` there.
+        (from the smallest size to ``size``), the sequence converges faster up to that size
+        than beyond it (He 4³P, boxes tuned at N = 500: step ratios 0.017, 0.003 at
+        N = 212..600, bar 0.14 of the true error; He 2¹P solved at its tuning size N = 600: bar
+        270 times the error), so the ratio is taken as at least :data:`MIN_RATIO` and the bar
+        is flagged unreliable.
 
     Returns
     -------
@@ -326,7 +327,7 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
     # enter the last step and the value itself
     floor = max(numerical[0], numerical[-1])
     four = len(sizes) >= 3
-    tuned_inside = tuned_at is not None and sizes[0] <= tuned_at < size
+    tuned_inside = tuned_at is not None and sizes[0] <= tuned_at <= size
     if four:
         estimate = estimate_nested_tail(energies, floor, texts, MIN_RATIO if tuned_inside else 0.0)
     else:
@@ -334,9 +335,10 @@ def nested_error_bar(refined_at: Callable[[int], object], size: int, refined,
     factor = NESTED_BAR_FACTOR if four else BAR_FACTOR
     note, reliable = estimate.note, estimate.reliable
     if tuned_inside and four:
+        reliable = False
         note = (note + "; " if note else "") + (f"the basis was tuned at N = {tuned_at}, inside the "
-                                                "nested sizes: the ratio is not taken below "
-                                                f"{MIN_RATIO:.3g}")
+                                                "nested sizes, which then converge unevenly: the "
+                                                f"ratio is not taken below {MIN_RATIO:.3g}")
     if floor > 0 and floor >= estimate.tail_hartree:
         note = (note + "; " if note else "") + ("the bar is set by the estimated arithmetic error, "
                                                 "not by the basis: a higher precision gives a tighter one")
