@@ -32,7 +32,7 @@ def main(argv=None) -> None:
     args = p.parse_args(argv)
     warnings.simplefilter("ignore")
     print(f"{'state':6s} {'N':>5s} {'energy (Eh)':>24s} {'bar (Eh)':>9s} {'E - ref':>10s} "
-          f"{'bar/err':>7s} {'covered':>7s} {'digits':>6s} {'wall s':>7s} {'cpu s':>7s}")
+          f"{'bar/err':>7s} {'covered':>7s} {'reliable':>8s} {'digits':>6s} {'wall s':>7s} {'cpu s':>7s}")
     for label in args.states:
         for size in args.sizes:
             wall, cpu = time.perf_counter(), time.process_time()
@@ -45,7 +45,7 @@ def main(argv=None) -> None:
             digits = "" if r.reference is None else r.agreeing_digits
             print(f"{label:6s} {r.size:5d} {r.energy_full_text[:24]:>24s} {bar or float('nan'):9.1e} "
                   f"{'' if diff is None else format(diff, '10.2e'):>10s} {ratio:>7s} {covered:>7s} "
-                  f"{digits:>6} {wall:7.1f} {cpu:7.1f}", flush=True)
+                  f"{str(r.reliable):>8s} {digits:>6} {wall:7.1f} {cpu:7.1f}", flush=True)
 
 
 if __name__ == "__main__":
