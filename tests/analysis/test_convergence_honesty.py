@@ -35,6 +35,7 @@ def _correct_digits(text, reference):
         return n
 
 
+@pytest.mark.slow
 @pytest.mark.parametrize("state, reference", [("2^3P", HE_2_3P), ("2^1P", HE_2_1P)])
 def test_p_bar_covers_true_error(state, reference):
     """P rows are refined beyond float64 (double-double matrices): each row's arithmetic error
@@ -52,6 +53,7 @@ def test_p_bar_covers_true_error(state, reference):
     assert study.digits <= _correct_digits(study.energy_texts[-1], reference)
 
 
+@pytest.mark.slow
 @pytest.mark.parametrize("state, reference", [("2^3P", HE_2_3P), ("2^1P", HE_2_1P)])
 def test_stagnating_float64_p_sequence_keeps_an_honest_bar(state, reference):
     # (about 4 s each) sizes where float64 energies stagnate (before: bars 2e-11 and 1.4e-12 for true errors ~1e-9, 4e-10)

@@ -29,6 +29,7 @@ def d_values():
     return out
 
 
+@pytest.mark.slow
 def test_direct_and_regularized_delta_agree_for_3_1d(d_values):
     v = d_values["3^1D"]
     assert v.delta_r1 == pytest.approx(v.delta_r1_regularized, rel=1e-5)
@@ -37,6 +38,7 @@ def test_direct_and_regularized_delta_agree_for_3_1d(d_values):
     assert v.delta_r1 == pytest.approx(0.5 * 2**3 / math.pi, rel=1e-3)
 
 
+@pytest.mark.slow
 def test_inner_and_outer_electrons_of_1s3d(d_values):
     # ½(⟨1/r⟩_1s + ⟨1/r⟩_3d) with Z = 2 and charge 1 for the outer electron: (2 + 1/9)/2
     for label in ("3^1D", "3^3D"):
@@ -45,6 +47,7 @@ def test_inner_and_outer_electrons_of_1s3d(d_values):
         assert d_values[label].inv_r1_squared == pytest.approx((8 + 1 / 67.5) / 2, rel=2e-3)
 
 
+@pytest.mark.slow
 def test_triplet_delta_r12_vanishes(d_values):
     v = d_values["3^3D"]
     assert abs(v.delta_r12) < 1e-12
